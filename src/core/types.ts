@@ -1,0 +1,71 @@
+/**
+ * Shared shapes of the numerical core. Symbols follow shared/design/METHODS.md:
+ * `nu` the m = n - k eigenvalues of M·A on the complement of col(X), sorted ascending;
+ * `c` the point at which a tail probability is wanted; `lambda` the weights `nu_i - c`.
+ */
+
+/** Name of a probability engine. */
+export type EngineName = 'imhof' | 'pan' | 'eigenfree';
+
+/** Engine choice offered to callers: a named engine, or `auto` to let the library choose. */
+export type MethodChoice = 'auto' | EngineName;
+
+/** Which tail of the distribution of d: `lower` is P(d <= c), `upper` is P(d >= c). */
+export type Tail = 'lower' | 'upper';
+
+/** A tail probability with the evidence for its accuracy. */
+export interface TailProbability {
+  /** The probability, in [0, 1]. */
+  p: number;
+  /** Upper bound (or, where stated, a conservative estimate) on |p - true p|. */
+  errorBound: number;
+  /** errorBound / p, or the engine's own relative error estimate when it has a sharper one. */
+  relativeError: number;
+  /** Engine that produced the number. */
+  method: EngineName;
+  /** Why this engine answered (set by the `auto` chooser). */
+  reason?: string;
+}
+
+/**
+ * A symmetric band matrix stored by diagonals: `bands[0]` is the main diagonal (length n),
+ * `bands[j][t]` is the entry (t, t + j) (length n - j). Used for the difference operator A.
+ */
+export interface BandMatrix {
+  n: number;
+  /** bands.length - 1 */
+  bandwidth: number;
+  bands: Float64Array[];
+}
+
+/**
+ * An orthonormal basis of col(X): `q` is n x k, column-major (column j occupies
+ * q[j*n .. j*n + n - 1]). Q'Q = I to working precision.
+ */
+export interface ColumnBasis {
+  n: number;
+  k: number;
+  q: Float64Array;
+}
+
+/**
+ * What Imhof's integral needs from a quadratic form Q = sum lambda_j z_j^2 (METHODS.md sections 3
+ * and 5): the phase theta(u) = (1/2) sum arctan(lambda_j u) and the log-modulus
+ * log rho(u) = (1/4) sum log(1 + lambda_j^2 u^2), plus a few constants for the truncation bound.
+ * A spectral engine computes these from the weights; the eigen-free engine from a log-determinant.
+ */
+export interface CharacteristicForm {
+  /** Number of nonzero weights (sets the decay u^(-1-m/2) of the integrand). */
+  m: number;
+  /** sum lambda_j: the integrand tends to sumLambda / 2 as u -> 0. */
+  sumLambda: number;
+  /** sum log|lambda_j| over the nonzero weights (enters the truncation bound). */
+  sumLogAbsLambda: number;
+  /** max |lambda_j| (sets the natural scale of u). */
+  maxAbsLambda: number;
+  /**
+   * Write theta(u) into out[0] and log rho(u) into out[1]. theta must be the continuous branch
+   * (the sum of principal arctangents), never reduced modulo 2 pi.
+   */
+  evaluate(u: number, out: Float64Array): void;
+}
