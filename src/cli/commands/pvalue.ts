@@ -1,0 +1,66 @@
+/** `exact-dw pvalue`: exact p-values of a given d (or of the d of given residuals) for a design. */
+import { DwError } from '../../errors.js';
+import { durbinWatson } from '../../core/difference.js';
+import { numericColumn } from '../../data/csv.js';
+import { prepareProblem } from '../../inference/problem.js';
+import { pValuesFor } from '../../inference/dw-test.js';
+import { choiceOption, numberOption, required } from '../args.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, formatP, loadTable, problemOptions } from '../shared.js';
+import type { Command } from './command.js';
+
+export const pvalueCommand: Command = {
+  name: 'pvalue',
+  summary: 'exact p-values of an observed d for your design',
+  usage: 'exact-dw pvalue --design X.csv (--d VALUE | --residuals E.csv) [options]',
+  options: {
+    design: { type: 'string', value: 'FILE', help: 'CSV of regressors: a header row, every column a regressor' },
+    d: { type: 'string', value: 'VALUE', help: 'the observed Durbin-Watson statistic' },
+    residuals: { type: 'string', value: 'FILE', help: 'CSV with one column of OLS residuals (instead of --d)' },
+    ...MODEL_OPTIONS,
+    ...CSV_OPTIONS,
+    format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+  },
+  run({ values, io }) {
+    const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');
+    const table = loadTable(io, required(values, 'design', 'pvalue'), values);
+    const options = problemOptions(values, table);
+    const x = designColumns(table, values);
+    const n = table.rows.length;
+    const hasD = values.d !== undefined;
+    const hasE = values.residuals !== undefined;
+    if (hasD === hasE) {
+      throw new DwError(hasD ? 'OPTION_CONFLICT' : 'OPTION_MISSING', hasD ? 'Give --d or --residuals, not both.' : "'pvalue' needs --d or --residuals.",
+        "See 'exact-dw pvalue --help'.");
+    }
+    const problem = prepareProblem(x, n, options);
+    let d: number;
+    if (hasD) {
+      d = numberOption(values, 'd') as number;
+    } else {
+      const et = loadTable(io, values.residuals as string, values);
+      if (et.headers.length !== 1) {
+        throw new DwError('CSV_RAGGED', `The residuals file has ${et.headers.length} columns; it must have exactly one.`, 'Keep only the residual column.');
+      }
+      if (et.rows.length !== n) {
+        throw new DwError('LENGTH_MISMATCH', `The residuals file has ${et.rows.length} rows but the design has ${n}.`, 'Use residuals from a fit on this same design.');
+      }
+      const e = numericColumn(et, et.headers[0]);
+      d = durbinWatson(e, problem.pairs);
+    }
+    const p = pValuesFor(problem, d);
+    if (format === 'json') {
+      const { d: dd, n: nn, k, pPositive, pNegative, pTwoSided, method, errorBound } = p;
+      io.out(JSON.stringify({ d: dd, n: nn, k, pPositive, pNegative, pTwoSided, method, errorBound }, null, 2) + '\n');
+    } else {
+      io.out([
+        `d = ${p.d.toFixed(4)}   (n = ${p.n}, k = ${p.k} columns including any intercept)`,
+        `  P(D <= d), positive autocorrelation:  ${formatP(p.pPositive)}`,
+        `  P(D >= d), negative autocorrelation:  ${formatP(p.pNegative)}`,
+        `  two-sided:                            ${formatP(p.pTwoSided)}`,
+        `  engine ${p.method}, absolute error below ${p.errorBound.toExponential(1)}`,
+        '',
+      ].join('\n'));
+    }
+    return 0;
+  },
+};

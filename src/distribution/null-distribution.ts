@@ -1,0 +1,115 @@
+/**
+ * The exact null distribution of d for one design (METHODS.md sections 2 and 7), with the SciPy
+ * convention of computing each tail directly: `sf` is P(d >= c) from its own integral, never
+ * 1 - cdf, and both tails have their own inverse.
+ */
+import { DwError } from '../errors.js';
+import type { MethodChoice, TailProbability } from '../core/types.js';
+import { tailProbability } from '../engines/choose.js';
+import { imhofDensity } from '../engines/imhof.js';
+import { brentRoot } from './root.js';
+import { spectrumSource, type NullSource } from './source.js';
+
+/** Options of a null distribution. */
+export interface DistributionOptions {
+  /** Engine: `auto` (default), `imhof`, `pan` or `eigenfree`. */
+  method?: MethodChoice;
+  /** Target absolute error of each probability (default 1e-11). */
+  tolerance?: number;
+}
+
+/**
+ * The exact distribution of d = sum nu_i z_i^2 / sum z_i^2 under the null.
+ *
+ * @example
+ * ```ts
+ * const dist = DwNullDistribution.fromSpectrum(nu);
+ * dist.cdf(1.2);          // P(d <= 1.2)
+ * dist.sf(2.8);           // P(d >= 2.8), computed directly
+ * dist.quantile(0.05);    // the exact 5% lower critical value
+ * dist.upperQuantile(0.05);
+ * ```
+ */
+export class DwNullDistribution {
+  readonly source: NullSource;
+  readonly options: DistributionOptions;
+
+  constructor(source: NullSource, options: DistributionOptions = {}) {
+    this.source = source;
+    this.options = options;
+  }
+
+  /** From an explicit spectrum (ascending). */
+  static fromSpectrum(nu: Float64Array, options: DistributionOptions = {}): DwNullDistribution {
+    return new DwNullDistribution(spectrumSource(nu), options);
+  }
+
+  /** Number of weights m = n - k. */
+  get m(): number { return this.source.m; }
+
+  /** The ascending spectrum nu (computed on first use for a design). */
+  get spectrum(): Float64Array { return this.source.spectrum(); }
+
+  /** Exact mean of d. */
+  get mean(): number { return this.source.mean(); }
+
+  /** Exact variance of d. */
+  get variance(): number { return this.source.variance(); }
+
+  /** [nu_1, nu_m]: d lies in this interval with probability one. */
+  get support(): [number, number] { return this.source.support(); }
+
+  /** P(d <= c) with its error bound and the engine that answered. */
+  lowerTail(c: number): TailProbability {
+    checkPoint(c);
+    return tailProbability(this.source, c, 'lower', this.options);
+  }
+
+  /** P(d >= c), computed directly, with its error bound and the engine that answered. */
+  upperTail(c: number): TailProbability {
+    checkPoint(c);
+    return tailProbability(this.source, c, 'upper', this.options);
+  }
+
+  /** P(d <= c). */
+  cdf(c: number): number { return this.lowerTail(c).p; }
+
+  /** P(d >= c) (the upper tail, computed directly). */
+  sf(c: number): number { return this.upperTail(c).p; }
+
+  /** The exact density of d at c (the derivative of the exact CDF). */
+  pdf(c: number): number {
+    checkPoint(c);
+    return imhofDensity(this.source.spectrum(), c).value;
+  }
+
+  /** The c with P(d <= c) = p (the lower critical value at level p). */
+  quantile(p: number): number {
+    checkProbability(p);
+    const [lo, hi] = this.support;
+    if (p === 0) return lo;
+    if (p === 1) return hi;
+    return brentRoot((c) => this.cdf(c) - p, lo, hi, 1e-12 * Math.max(1, hi - lo));
+  }
+
+  /** The c with P(d >= c) = p (the upper critical value at level p). */
+  upperQuantile(p: number): number {
+    checkProbability(p);
+    const [lo, hi] = this.support;
+    if (p === 0) return hi;
+    if (p === 1) return lo;
+    return brentRoot((c) => this.sf(c) - p, lo, hi, 1e-12 * Math.max(1, hi - lo));
+  }
+}
+
+function checkPoint(c: number): void {
+  if (!Number.isFinite(c)) {
+    throw new DwError('D_OUT_OF_RANGE', `The point ${c} is not a finite number.`, 'Give a finite value of d.');
+  }
+}
+
+function checkProbability(p: number): void {
+  if (!(p >= 0 && p <= 1)) {
+    throw new DwError('PROBABILITY_OUT_OF_RANGE', `The probability ${p} is outside [0, 1].`, 'Give a probability between 0 and 1.');
+  }
+}

@@ -1,0 +1,246 @@
+/**
+ * The exact Durbin-Watson test for the caller's own design: d, its exact p-values under the null
+ * of independent normal errors (Durbin & Watson 1950, 1951; exact distribution as in Imhof 1961),
+ * the exact critical values at alpha, and the decision.
+ */
+import { DwError } from '../errors.js';
+import { durbinWatson } from '../core/difference.js';
+import type { EngineName, MethodChoice } from '../core/types.js';
+import { fitLeastSquares, type Coefficient } from '../model/ols.js';
+import type { RegressorInput } from '../model/design.js';
+import { prepareProblem, type DwProblem, type ProblemOptions } from './problem.js';
+
+/** The alternative hypothesis: positive or negative first-order autocorrelation, or either. */
+export type Alternative = 'positive' | 'negative' | 'two-sided';
+
+/** Input of {@link exactDwTest}: y (fitted here) or residuals (already fitted) with the regressors. */
+export interface DwTestInput extends ProblemOptions {
+  /** The dependent variable; the regression of y on x is fitted by least squares. */
+  y?: ArrayLike<number>;
+  /** OLS residuals from the caller's own fit of y on x (instead of y). */
+  residuals?: ArrayLike<number>;
+  /** The regressors (rows or named columns), without the intercept (it is added by default). */
+  x: RegressorInput;
+  /** Alternative hypothesis (default `positive`, the usual one-sided test). */
+  alternative?: Alternative;
+  /** Significance level (default 0.05). */
+  alpha?: number;
+}
+
+/** Exact p-values of an observed d. */
+export interface DwPValues {
+  /** The statistic. */
+  d: number;
+  /** Observations. */
+  n: number;
+  /** Columns of X including the intercept. */
+  k: number;
+  /** P(D <= d): evidence of positive autocorrelation. */
+  pPositive: number;
+  /** P(D >= d): evidence of negative autocorrelation. */
+  pNegative: number;
+  /** min(1, 2 min(pPositive, pNegative)). */
+  pTwoSided: number;
+  /** Engine that computed the p-values. */
+  method: EngineName;
+  /** Why that engine answered. */
+  methodReason: string;
+  /** Absolute error bound of the larger of the two one-sided p-values (doubled for two-sided). */
+  errorBound: number;
+}
+
+/** Full result of {@link exactDwTest}. */
+export interface DwTestResult extends DwPValues {
+  /** m = n - k. */
+  m: number;
+  lag: number;
+  /** Whether the model has an intercept (added or the caller's constant column). */
+  intercept: boolean;
+  /** Whether the library added the intercept column. */
+  interceptAdded: boolean;
+  /** Column names of X, in order. */
+  columns: string[];
+  /** Coefficient estimates (when y was given). */
+  coefficients: Coefficient[] | null;
+  /** R^2 of the fit (when y was given). */
+  rSquared: number | null;
+  alternative: Alternative;
+  alpha: number;
+  /** p-value for the chosen alternative. */
+  pValue: number;
+  /** Exact critical values for this X: P(D <= lower) = a and P(D >= upper) = a, a = alpha (alpha/2 two-sided). */
+  critical: { lower: number; upper: number; tailLevel: number };
+  /** 'reject' when pValue <= alpha. */
+  decision: 'reject' | 'not-rejected';
+  /** Exact mean and variance of d under the null. */
+  nullMean: number;
+  nullVariance: number;
+  /** True when the time column has gaps, so that some differences are missing. */
+  gaps: boolean;
+  warnings: string[];
+}
+
+/** Check alpha and the alternative at the boundary where they enter. */
+export function checkAlpha(alpha: number): void {
+  if (!(alpha > 0 && alpha < 1)) {
+    throw new DwError('ALPHA_OUT_OF_RANGE', `The significance level ${alpha} is outside (0, 1).`, 'Use a level such as 0.05 or 0.01.');
+  }
+}
+
+/** Exact p-values of d for a prepared problem. */
+export function pValuesFor(problem: DwProblem, d: number): DwPValues {
+  // each residual enters at most two differences, and (a - b)^2 <= 2a^2 + 2b^2: 0 <= d <= 4 at any lag
+  if (!(Number.isFinite(d) && d >= 0 && d <= 4)) {
+    throw new DwError('D_OUT_OF_RANGE', `d = ${d} is outside the possible range [0, 4].`, 'Check the value of d you passed.');
+  }
+  const lower = problem.distribution.lowerTail(d);
+  const upper = problem.distribution.upperTail(d);
+  const pTwo = Math.min(1, 2 * Math.min(lower.p, upper.p));
+  return {
+    d,
+    n: problem.factored.design.n,
+    k: problem.factored.design.k,
+    pPositive: lower.p,
+    pNegative: upper.p,
+    pTwoSided: pTwo,
+    method: lower.method,
+    methodReason: lower.reason ?? '',
+    errorBound: Math.max(lower.errorBound, upper.errorBound) * (pTwo < 1 ? 2 : 1),
+  };
+}
+
+/**
+ * Exact p-values for an observed d and the caller's regressors.
+ *
+ * @example
+ * ```ts
+ * exactDwPValue({ x: { trend: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10] }, d: 1.1 }).pPositive;
+ * ```
+ */
+export function exactDwPValue(input: ProblemOptions & { x: RegressorInput; d: number; n?: number }): DwPValues {
+  const n = input.n ?? rowCount(input.x);
+  return pValuesFor(prepareProblem(input.x, n, input), input.d);
+}
+
+/**
+ * Exact critical values for the caller's regressors: P(D <= lower) = alpha, P(D >= upper) = alpha.
+ *
+ * @example
+ * ```ts
+ * exactDwCritical({ x: { trend: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10] }, alpha: 0.05 }); // { lower, upper }
+ * ```
+ */
+export function exactDwCritical(input: ProblemOptions & { x: RegressorInput; alpha: number; n?: number }): { lower: number; upper: number; n: number; k: number } {
+  checkAlpha(input.alpha);
+  const n = input.n ?? rowCount(input.x);
+  const problem = prepareProblem(input.x, n, input);
+  return {
+    lower: problem.distribution.quantile(input.alpha),
+    upper: problem.distribution.upperQuantile(input.alpha),
+    n,
+    k: problem.factored.design.k,
+  };
+}
+
+/** Number of observations in regressors given as rows or columns. */
+export function rowCount(x: RegressorInput): number {
+  if (Array.isArray(x)) return x.length;
+  const cols = Object.values(x as Record<string, ArrayLike<number>>);
+  if (cols.length === 0) {
+    throw new DwError('OPTION_MISSING', 'With no regressor columns the number of observations must be given.', 'Pass n, or give y.');
+  }
+  return cols[0].length;
+}
+
+/**
+ * The exact Durbin-Watson test: fit (or take residuals), compute d, its exact p-values for this X,
+ * the exact critical values, and the decision.
+ *
+ * @example
+ * ```ts
+ * const r = exactDwTest({ y: sales, x: { price, income }, alternative: 'positive', alpha: 0.05 });
+ * r.d; r.pValue; r.critical.lower; r.decision;
+ * ```
+ */
+export function exactDwTest(input: DwTestInput): DwTestResult {
+  const alternative = input.alternative ?? 'positive';
+  if (!['positive', 'negative', 'two-sided'].includes(alternative)) {
+    throw new DwError('OPTION_VALUE', `Unknown alternative '${alternative}'.`, 'Use positive, negative or two-sided.');
+  }
+  const alpha = input.alpha ?? 0.05;
+  checkAlpha(alpha);
+  if ((input.y === undefined) === (input.residuals === undefined)) {
+    throw new DwError('OPTION_CONFLICT', 'Give exactly one of y and residuals.', 'Pass y to fit the regression here, or the residuals of your own fit.');
+  }
+  const series = (input.y ?? input.residuals) as ArrayLike<number>;
+  const n = series.length;
+  const problem = prepareProblem(input.x, n, input);
+  const { design } = problem.factored;
+  const warnings = [...problem.warnings];
+  let residuals: Float64Array;
+  let coefficients: Coefficient[] | null = null;
+  let rSquared: number | null = null;
+  if (input.y !== undefined) {
+    const fit = fitLeastSquares(problem.factored, input.y);
+    residuals = fit.residuals;
+    coefficients = fit.coefficients;
+    rSquared = fit.rSquared;
+  } else {
+    residuals = Float64Array.from(input.residuals as ArrayLike<number>);
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(residuals[i])) {
+        throw new DwError('CELL_NOT_FINITE', `Residual ${i + 1} is ${residuals[i]}.`, 'Every residual must be a finite number.', { row: i + 1 });
+      }
+    }
+    const drift = orthogonalityDrift(problem, residuals);
+    if (drift > 1e-6) {
+      warnings.push(`The residuals are not orthogonal to the design (relative size of X'e about ${drift.toExponential(1)}): were they computed by least squares on these same regressors?`);
+    }
+  }
+  const d = durbinWatson(residuals, problem.pairs);
+  const p = pValuesFor(problem, d);
+  const pValue = alternative === 'positive' ? p.pPositive : alternative === 'negative' ? p.pNegative : p.pTwoSided;
+  const tailLevel = alternative === 'two-sided' ? alpha / 2 : alpha;
+  const dist = problem.distribution;
+  const critical = { lower: dist.quantile(tailLevel), upper: dist.upperQuantile(tailLevel), tailLevel };
+  if (design.interceptIndex < 0) {
+    warnings.push('The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.');
+  }
+  return {
+    ...p,
+    m: n - design.k,
+    lag: problem.pairs.lag,
+    intercept: design.interceptIndex >= 0,
+    interceptAdded: design.interceptAdded,
+    columns: design.names,
+    coefficients,
+    rSquared,
+    alternative,
+    alpha,
+    pValue,
+    critical,
+    decision: pValue <= alpha ? 'reject' : 'not-rejected',
+    nullMean: dist.mean,
+    nullVariance: dist.variance,
+    gaps: problem.pairs.from.length < n - problem.pairs.lag,
+    warnings,
+  };
+}
+
+/** ||Q'e|| / ||e|| for the basis Q of col(X). */
+function orthogonalityDrift(problem: DwProblem, e: Float64Array): number {
+  const basis = problem.distribution.source.basis;
+  if (!basis) return 0;
+  const { n, k, q } = basis;
+  let big = 0;
+  for (let i = 0; i < n; i++) big = Math.max(big, Math.abs(e[i]));
+  if (big === 0) return 0;
+  let ee = 0, proj = 0;
+  for (let i = 0; i < n; i++) ee += (e[i] / big) ** 2;
+  for (let j = 0; j < k; j++) {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += q[j * n + i] * (e[i] / big);
+    proj += s * s;
+  }
+  return Math.sqrt(proj / ee);
+}

@@ -1,0 +1,241 @@
+/**
+ * The design matrix X: the caller's regressors, the intercept rule, and the checks that make the
+ * exact distribution well defined (finite values, n >= k + 2, full column rank).
+ *
+ * Intercept rule: added as a column of ones by default; when the caller's regressors already hold
+ * a constant column, that column is the intercept (it is not duplicated); `intercept: false`
+ * leaves it out (a constant column the caller supplies still counts as an intercept).
+ */
+import { DwError } from '../errors.js';
+import { householderQR, type HouseholderQR } from '../core/qr.js';
+
+/** Name given to the intercept column the library adds. */
+export const INTERCEPT_NAME = '(intercept)';
+
+/** A validated design. */
+export interface Design {
+  n: number;
+  k: number;
+  /** Column names, in order; the added intercept, if any, comes first. */
+  names: string[];
+  /** X, column-major n x k. */
+  x: Float64Array;
+  /** Index of the intercept (constant) column, or -1 when the model has none. */
+  interceptIndex: number;
+  /** True when the library added the intercept column. */
+  interceptAdded: boolean;
+}
+
+/** How to build a design. */
+export interface DesignOptions {
+  /** Include an intercept (default true). */
+  intercept?: boolean;
+  /** Names of the regressors (default x1, x2, ...). */
+  names?: string[];
+}
+
+/** Regressors given as rows (n arrays of p numbers) or as named columns. */
+export type RegressorInput = ReadonlyArray<ArrayLike<number>> | Readonly<Record<string, ArrayLike<number>>>;
+
+function isRows(x: RegressorInput): x is ReadonlyArray<ArrayLike<number>> {
+  return Array.isArray(x);
+}
+
+/**
+ * Build and validate X. `x` may be rows (`[[x11, x12], [x21, x22], ...]`) or named columns
+ * (`{ price: [...], income: [...] }`). An empty regressor list with the intercept gives the
+ * intercept-only model.
+ *
+ * @example
+ * ```ts
+ * const design = buildDesign({ trend: [1, 2, 3, 4, 5, 6] });
+ * design.names; // ['(intercept)', 'trend']
+ * ```
+ */
+export function buildDesign(x: RegressorInput, n: number, options: DesignOptions = {}): Design {
+  const columns: Float64Array[] = [];
+  let names: string[];
+  if (isRows(x)) {
+    if (x.length !== n && !(x.length === 0)) {
+      throw new DwError('LENGTH_MISMATCH', `The regressors have ${x.length} rows but there are ${n} observations.`,
+        'Give one row of regressors per observation.');
+    }
+    const p = x.length === 0 ? 0 : x[0].length;
+    for (let i = 0; i < x.length; i++) {
+      if (x[i].length !== p) {
+        throw new DwError('LENGTH_MISMATCH', `Row ${i + 1} of the regressors has ${x[i].length} values, row 1 has ${p}.`,
+          'Every row must have the same number of regressors.', { row: i + 1 });
+      }
+    }
+    names = options.names ? [...options.names] : Array.from({ length: p }, (_, j) => `x${j + 1}`);
+    if (names.length !== p) {
+      throw new DwError('LENGTH_MISMATCH', `${names.length} names were given for ${p} regressors.`, 'Give one name per column.');
+    }
+    for (let j = 0; j < p; j++) {
+      const col = new Float64Array(n);
+      for (let i = 0; i < n; i++) col[i] = x[i][j];
+      columns.push(col);
+    }
+  } else {
+    names = Object.keys(x);
+    for (const name of names) {
+      const v = x[name];
+      if (v.length !== n) {
+        throw new DwError('LENGTH_MISMATCH', `Column '${name}' has ${v.length} values but there are ${n} observations.`,
+          'Give every column one value per observation.', { column: name });
+      }
+      columns.push(Float64Array.from(v as ArrayLike<number>));
+    }
+  }
+  const seen = new Set<string>();
+  for (const name of names) {
+    if (seen.has(name)) {
+      throw new DwError('COLUMN_REPEATED', `The regressor '${name}' is named twice.`, 'Use each column once.', { column: name });
+    }
+    seen.add(name);
+  }
+  columns.forEach((col, j) => {
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(col[i])) {
+        throw new DwError('CELL_NOT_FINITE', `Regressor '${names[j]}' has the value ${col[i]} at observation ${i + 1}.`,
+          'Every value must be a finite number; remove or fill the observation.', { row: i + 1, column: names[j], value: String(col[i]) });
+      }
+    }
+  });
+
+  const constant = columns.map(isConstant);
+  const constantIdx = constant.flatMap((c, j) => (c ? [j] : []));
+  for (const j of constantIdx) {
+    if (columns[j][0] === 0) {
+      throw new DwError('RANK_DEFICIENT', `Regressor '${names[j]}' is zero in every observation.`,
+        'Remove the column.', { column: names[j] });
+    }
+  }
+  if (constantIdx.length > 1) {
+    throw new DwError('RANK_DEFICIENT',
+      `Regressors ${constantIdx.map((j) => `'${names[j]}'`).join(', ')} are all constant, so they duplicate one another.`,
+      'Keep at most one constant column (or none, and let the intercept be added).', { column: names[constantIdx[1]] });
+  }
+  const wantIntercept = options.intercept ?? true;
+  let interceptIndex = constantIdx.length === 1 ? constantIdx[0] : -1;
+  let interceptAdded = false;
+  if (wantIntercept && interceptIndex < 0) {
+    columns.unshift(new Float64Array(n).fill(1));
+    names = [INTERCEPT_NAME, ...names];
+    interceptIndex = 0;
+    interceptAdded = true;
+  }
+  const k = columns.length;
+  if (k === 0) {
+    throw new DwError('NO_REGRESSORS', 'The model has no regressors and no intercept.',
+      'Give at least one regressor or keep the intercept.');
+  }
+  if (n < k + 2) {
+    throw new DwError('TOO_FEW_ROWS', `There are ${n} observations for ${k} columns (including any intercept); at least k + 2 = ${k + 2} are needed.`,
+      'Use more observations or fewer regressors.');
+  }
+  const xs = new Float64Array(n * k);
+  columns.forEach((col, j) => xs.set(col, j * n));
+  return { n, k, names, x: xs, interceptIndex, interceptAdded };
+}
+
+function isConstant(col: Float64Array): boolean {
+  for (let i = 1; i < col.length; i++) if (col[i] !== col[0]) return false;
+  return true;
+}
+
+/** A design factorised for fitting and for the spectrum. */
+export interface FactoredDesign {
+  design: Design;
+  /**
+   * QR of the preconditioned design P = (X - 1 mu') S^-1: columns centred (when the model has an
+   * intercept; the column space is unchanged) and scaled to unit length. col(P) = col(X).
+   */
+  qr: HouseholderQR;
+  /** Column means subtracted (0 for the intercept and for every column without an intercept). */
+  shift: Float64Array;
+  /** Column scales divided by. */
+  scale: Float64Array;
+  /** Estimate of the condition number of P (Frobenius norms of R and R^-1). */
+  condition: number;
+}
+
+/** Relative size of |R_jj| below which a column counts as a linear combination of the others. */
+export const RANK_TOLERANCE = 1e-10;
+/** Condition number above which the design is refused (see README, errors and limits). */
+export const CONDITION_LIMIT = 1e10;
+/** Condition number above which a warning is given. */
+export const CONDITION_WARNING = 1e7;
+
+/**
+ * Factorise the design with rank detection. Throws RANK_DEFICIENT naming the columns that are
+ * (numerically) linear combinations of earlier ones, and ILL_CONDITIONED beyond CONDITION_LIMIT.
+ */
+export function factorDesign(design: Design): FactoredDesign {
+  const { n, k, x, interceptIndex } = design;
+  const shift = new Float64Array(k);
+  const scale = new Float64Array(k);
+  const p = new Float64Array(n * k);
+  for (let j = 0; j < k; j++) {
+    const off = j * n;
+    let mu = 0;
+    if (interceptIndex >= 0 && j !== interceptIndex) {
+      for (let i = 0; i < n; i++) mu += x[off + i] / n;
+    }
+    shift[j] = mu;
+    let big = 0;
+    for (let i = 0; i < n; i++) { p[off + i] = x[off + i] - mu; big = Math.max(big, Math.abs(p[off + i])); }
+    let ss = 0;
+    for (let i = 0; i < n; i++) { const v = big > 0 ? p[off + i] / big : 0; ss += v * v; }
+    const s = big * Math.sqrt(ss);
+    scale[j] = s > 0 ? s : 1;
+    for (let i = 0; i < n; i++) p[off + i] /= scale[j];
+  }
+  // find every column that is (numerically) in the span of the earlier independent ones
+  const bad: number[] = [];
+  const keep: number[] = [];
+  for (let j = 0; j < k; j++) {
+    const trial = [...keep, j];
+    const sub = new Float64Array(n * trial.length);
+    trial.forEach((c, t) => sub.set(p.subarray(c * n, c * n + n), t * n));
+    const f = householderQR(sub, n, trial.length);
+    const r = Math.abs(f.rdiag[trial.length - 1]);
+    if (!(r > RANK_TOLERANCE)) bad.push(j); else keep.push(j);
+  }
+  if (bad.length > 0) {
+    const list = bad.map((j) => `'${design.names[j]}'`).join(', ');
+    throw new DwError('RANK_DEFICIENT',
+      `The design is rank deficient: ${list} ${bad.length === 1 ? 'is a linear combination' : 'are linear combinations'} of the other columns${bad.some((j) => isConstant(x.subarray(j * n, j * n + n))) ? ' (a constant column duplicates the intercept)' : ''}.`,
+      `Remove ${bad.length === 1 ? 'that column' : 'those columns'} (or the columns they duplicate) and run again.`,
+      { column: design.names[bad[0]] });
+  }
+  const qr = householderQR(p, n, k);
+  const condition = conditionEstimate(qr);
+  if (condition > CONDITION_LIMIT) {
+    throw new DwError('ILL_CONDITIONED',
+      `The design is too ill-conditioned for an exact answer (condition number about ${condition.toExponential(1)}, limit ${CONDITION_LIMIT.toExponential(0)}).`,
+      'Centre and scale the regressors (for example years minus their mean, divided by 10) or use orthogonal polynomials for trends.');
+  }
+  return { design, qr, shift, scale, condition };
+}
+
+/** ||R||_F ||R^-1||_F: within a factor k of the 2-norm condition number. */
+function conditionEstimate(f: HouseholderQR): number {
+  const { n, k, qr } = f;
+  const r = (i: number, j: number) => qr[j * n + i];
+  let normR = 0;
+  for (let j = 0; j < k; j++) for (let i = 0; i <= j; i++) normR += r(i, j) ** 2;
+  // R^-1 column by column (upper triangular back substitution)
+  let normInv = 0;
+  const col = new Float64Array(k);
+  for (let c = 0; c < k; c++) {
+    col.fill(0);
+    for (let i = c; i >= 0; i--) {
+      let s = i === c ? 1 : 0;
+      for (let j = i + 1; j <= c; j++) s -= r(i, j) * col[j];
+      col[i] = s / r(i, i);
+    }
+    for (let i = 0; i <= c; i++) normInv += col[i] ** 2;
+  }
+  return Math.sqrt(normR * normInv);
+}
