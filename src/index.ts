@@ -21,7 +21,7 @@ export { parseCsv, numericColumn, parseCell, type DataTable, type CsvOptions } f
 export { prepareProblem, type DwProblem, type ProblemOptions } from './inference/problem.js';
 export {
   exactDwTest, exactDwPValue, exactDwCritical, pValuesFor,
-  type DwTestInput, type DwTestResult, type DwPValues, type Alternative,
+  type DwTestInput, type DwTestResult, type DwPValues, type Alternative, type BoundsZone, type PowerSummary, type DynamicModelCheck,
 } from './inference/dw-test.js';
 export { renderText } from './report/text.js';
 export { VERSION } from './version.js';
