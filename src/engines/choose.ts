@@ -1,18 +1,50 @@
 /**
  * Engine choice. `auto` answers with the engine best suited to the request and says why:
- *   - Imhof's integral on the spectrum by default (absolute error <= 1e-10, any spectrum, ties too);
- * Callers may force an engine with `method`.
+ *
+ *   1. a design whose spectrum is not yet known and whose n exceeds {@link AUTO_SPECTRUM_MAX_N}
+ *      goes to the eigen-free engine (O(n k) per evaluation, no eigenvalues at all);
+ *   2. otherwise Imhof's integral on the spectrum (absolute error <= 1e-10, any spectrum, ties too);
+ *   3. when that probability is small enough that its absolute bound is a poor relative one
+ *      (relative error above {@link AUTO_RELATIVE_TARGET}), Pan's finite-range form answers instead
+ *      if it applies (distinct eigenvalues, acceptable cancellation): it computes the small tail
+ *      directly with relative accuracy. Where it does not apply, Imhof's number stands and its
+ *      relative error is reported as it is.
+ *
+ * Callers may force an engine with `method`; a forced engine that cannot answer raises
+ * ENGINE_NOT_APPLICABLE with the reason, never a wrong number.
  */
 import { DwError } from '../errors.js';
 import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
-import { imhofTail } from './imhof.js';
+import { imhofTail, integrateImhof } from './imhof.js';
+import { panApplicable, panTail } from './pan.js';
+import { eigenfreeForm } from './eigenfree.js';
 import type { NullSource } from '../distribution/source.js';
+
+/** Above this n, `auto` avoids computing a spectrum that is not already known. */
+export const AUTO_SPECTRUM_MAX_N = 1000;
+/** Relative error above which `auto` hands a tail probability to Pan's engine. */
+export const AUTO_RELATIVE_TARGET = 1e-6;
 
 /** Options for a tail probability. */
 export interface EngineOptions {
   method?: MethodChoice;
   /** Target absolute error (default 1e-11). */
   tolerance?: number;
+}
+
+function eigenfree(source: NullSource, c: number, tail: Tail, tolerance?: number): TailProbability {
+  if (!source.operator || !source.basis) {
+    throw new DwError('ENGINE_NOT_APPLICABLE', 'The eigen-free engine needs a design (operator and regressors), not a bare spectrum.',
+      'Use --method imhof or pan for a given spectrum.');
+  }
+  const [lo, hi] = source.support();
+  const below = tail === 'lower';
+  if (source.hasSpectrum() && (c <= lo || c >= hi)) {
+    const p = (c <= lo) === below ? 0 : 1;
+    return { p, errorBound: 0, relativeError: 0, method: 'eigenfree' };
+  }
+  const r = integrateImhof(eigenfreeForm(source.operator, source.basis, c, below ? 1 : -1), { tolerance });
+  return { p: r.p, errorBound: r.errorBound, relativeError: r.p > 0 ? r.errorBound / r.p : Infinity, method: 'eigenfree' };
 }
 
 /**
@@ -29,11 +61,43 @@ export function tailProbability(source: NullSource, c: number, tail: Tail, optio
   switch (method) {
     case 'imhof':
       return imhofTail(source.spectrum(), c, tail, { tolerance });
-    case 'auto': {
-      const r = imhofTail(source.spectrum(), c, tail, { tolerance });
-      return { ...r, reason: 'Imhof integral on the spectrum (default)' };
+    case 'pan': {
+      const nu = source.spectrum();
+      const ok = panApplicable(nu, c);
+      if (!ok.ok) {
+        throw new DwError('ENGINE_NOT_APPLICABLE', `Pan's engine does not apply here: ${ok.reason}.`, 'Use --method auto or imhof.');
+      }
+      return panTail(nu, c, tail);
     }
+    case 'eigenfree':
+      return eigenfree(source, c, tail, tolerance);
+    case 'auto':
+      return auto(source, c, tail, tolerance);
     default:
-      throw new DwError('OPTION_VALUE', `The engine '${method}' is not available.`, 'Use auto or imhof.');
+      throw new DwError('OPTION_VALUE', `Unknown engine '${String(method)}'.`, 'Use auto, imhof, pan or eigenfree.');
   }
+}
+
+function auto(source: NullSource, c: number, tail: Tail, tolerance?: number): TailProbability {
+  const n = source.basis?.n ?? 0;
+  if (!source.hasSpectrum() && source.operator && n > AUTO_SPECTRUM_MAX_N) {
+    return { ...eigenfree(source, c, tail, tolerance), reason: `eigen-free engine: n = ${n} is large, so no spectrum is computed (O(n k) per evaluation)` };
+  }
+  const nu = source.spectrum();
+  const im = imhofTail(nu, c, tail, { tolerance });
+  if (c <= nu[0] || c >= nu[nu.length - 1] || im.relativeError <= AUTO_RELATIVE_TARGET) {
+    return { ...im, reason: 'Imhof integral on the spectrum' };
+  }
+  const ok = panApplicable(nu, c);
+  if (ok.ok) {
+    try {
+      const pan = panTail(nu, c, tail);
+      if (pan.relativeError < im.relativeError) {
+        return { ...pan, reason: "Pan's finite-range form: the tail probability is small, and Pan computes it with relative accuracy" };
+      }
+    } catch {
+      // Pan could not vouch for its number: Imhof's stands
+    }
+  }
+  return { ...im, reason: `Imhof integral on the spectrum (small tail; its relative error is ${im.relativeError.toExponential(1)}${ok.ok ? '' : `; Pan's form does not apply: ${ok.reason}`})` };
 }

@@ -4,7 +4,7 @@
  */
 import { differenceMatrix, differencePairs, type DifferencePairs } from '../core/difference.js';
 import { columnBasis } from '../core/qr.js';
-import { denseSpectrum } from '../core/spectrum.js';
+import { fastSpectrum } from '../core/fast-spectrum.js';
 import type { BandMatrix, MethodChoice } from '../core/types.js';
 import { DwNullDistribution } from '../distribution/null-distribution.js';
 import { designSource } from '../distribution/source.js';
@@ -51,7 +51,7 @@ export function prepareProblem(x: RegressorInput, n: number, options: ProblemOpt
   const pairs = differencePairs(n, options.lag ?? 1, options.times);
   const operator = differenceMatrix(pairs);
   const basis = columnBasis(factored.qr);
-  const source = designSource(n - design.k, operator, basis, () => denseSpectrum(operator, factored.qr));
+  const source = designSource(n - design.k, operator, basis, () => fastSpectrum(operator, basis));
   const distribution = new DwNullDistribution(source, { method: options.method, tolerance: options.tolerance });
   const warnings: string[] = [];
   if (factored.condition > CONDITION_WARNING) {
