@@ -59,16 +59,36 @@ export class DwNullDistribution {
   /** [nu_1, nu_m]: d lies in this interval with probability one. */
   get support(): [number, number] { return this.source.support(); }
 
-  /** P(d <= c) with its error bound and the engine that answered. */
+  /**
+   * P(d <= c) with its error bound and the engine that answered. The bound covers the engine's
+   * own error and the effect of the spectrum's rounding ({@link NullSource.spectrumError}): since
+   * d is a weighted mean of the nu_i, moving every nu_i by at most delta moves d by at most delta,
+   * so the probability moves by at most delta times the slope of the CDF near c, which is
+   * measured by one more evaluation at c + h.
+   */
   lowerTail(c: number): TailProbability {
     checkPoint(c);
-    return tailProbability(this.source, c, 'lower', this.options);
+    return this.withInputError(tailProbability(this.source, c, 'lower', this.options), c, 'lower');
   }
 
-  /** P(d >= c), computed directly, with its error bound and the engine that answered. */
+  /** P(d >= c), computed directly, with its error bound (as for {@link lowerTail}) and the engine that answered. */
   upperTail(c: number): TailProbability {
     checkPoint(c);
-    return tailProbability(this.source, c, 'upper', this.options);
+    return this.withInputError(tailProbability(this.source, c, 'upper', this.options), c, 'upper');
+  }
+
+  private withInputError(r: TailProbability, c: number, tail: 'lower' | 'upper'): TailProbability {
+    const delta = this.source.spectrumError;
+    if (!(delta > 0) || r.p === 0 || r.p === 1) return r;
+    const [lo, hi] = this.support;
+    const h = Math.max(1e4 * delta, 1e-9 * (hi - lo));
+    // step into the tail's own direction of growth so the slope is taken where P is larger
+    const c2 = tail === 'lower' ? c + h : c - h;
+    const r2 = tailProbability(this.source, c2, tail, this.options);
+    const slope = (Math.abs(r2.p - r.p) + r.errorBound + r2.errorBound) / h;
+    const extra = 2 * delta * slope;
+    const errorBound = r.errorBound + extra;
+    return { ...r, errorBound, relativeError: r.relativeError + extra / r.p };
   }
 
   /** P(d <= c). */

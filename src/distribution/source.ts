@@ -10,6 +10,12 @@ import { bandMultiply } from '../core/difference.js';
 export interface NullSource {
   /** m = n - k, the number of weights. */
   m: number;
+  /**
+   * Bound on how far each nu_i may be from the true eigenvalue of the caller's design (rounding in
+   * the design's basis and in the spectrum). Every reported probability carries the effect of
+   * this on top of the engine's own error bound.
+   */
+  spectrumError: number;
   /** The ascending spectrum nu (computed on first use and then kept). */
   spectrum(): Float64Array;
   /** True when the spectrum is already known (no O(n^3) work to get it). */
@@ -36,8 +42,12 @@ export function spectrumSource(nu: Float64Array): NullSource {
   for (let i = 1; i < nu.length; i++) {
     if (!(nu[i] >= nu[i - 1])) throw new RangeError('spectrumSource: the spectrum must be sorted ascending and finite');
   }
+  let big = 0;
+  for (let i = 0; i < nu.length; i++) big = Math.max(big, Math.abs(nu[i]));
   return {
     m: nu.length,
+    // the spectrum is taken as given: only its own rounding (a few ulps) remains
+    spectrumError: 4 * Number.EPSILON * big,
     spectrum: () => nu,
     hasSpectrum: () => true,
     mean: () => spectrumMean(nu),
@@ -94,13 +104,14 @@ function gershgorin(a: BandMatrix): [number, number] {
  * A source from a design: the spectrum is computed lazily by `compute`; the mean, the variance
  * and a support interval come from traces and need no eigenvalues.
  */
-export function designSource(m: number, operator: BandMatrix, basis: ColumnBasis, compute: () => Float64Array): NullSource {
+export function designSource(m: number, operator: BandMatrix, basis: ColumnBasis, compute: () => Float64Array, spectrumError = 0): NullSource {
   let nu: Float64Array | undefined;
   let moments: { s1: number; s2: number } | undefined;
   const spectrum = () => (nu ??= compute());
   const mom = () => (moments ??= traceMoments(operator, basis));
   return {
     m,
+    spectrumError,
     spectrum,
     hasSpectrum: () => nu !== undefined,
     operator,

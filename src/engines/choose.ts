@@ -7,8 +7,9 @@
  *   3. when that probability is small enough that its absolute bound is a poor relative one
  *      (relative error above {@link AUTO_RELATIVE_TARGET}), Pan's finite-range form answers instead
  *      if it applies (distinct eigenvalues, acceptable cancellation): it computes the small tail
- *      directly with relative accuracy. Where it does not apply, Imhof's number stands and its
- *      relative error is reported as it is.
+ *      directly with relative accuracy. Where it does not apply (ties, clusters, cancellation), the
+ *      tail goes to the Laplace inversion on a line through the saddlepoint (saddle-contour.ts),
+ *      which keeps relative accuracy for any spectrum, ties included.
  *
  * Callers may force an engine with `method`; a forced engine that cannot answer raises
  * ENGINE_NOT_APPLICABLE with the reason, never a wrong number.
@@ -18,6 +19,7 @@ import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
 import { imhofTail, integrateImhof } from './imhof.js';
 import { panApplicable, panTail } from './pan.js';
 import { eigenfreeForm } from './eigenfree.js';
+import { contourTail } from './saddle-contour.js';
 import type { NullSource } from '../distribution/source.js';
 
 /** Above this n, `auto` avoids computing a spectrum that is not already known. */
@@ -88,16 +90,20 @@ function auto(source: NullSource, c: number, tail: Tail, tolerance?: number): Ta
   if (c <= nu[0] || c >= nu[nu.length - 1] || im.relativeError <= AUTO_RELATIVE_TARGET) {
     return { ...im, reason: 'Imhof integral on the spectrum' };
   }
+  // a small tail: Pan's form (when it applies) and the shifted inversion both aim at relative
+  // accuracy; the one reporting the smaller relative error answers
   const ok = panApplicable(nu, c);
+  let pan: TailProbability | null = null;
   if (ok.ok) {
-    try {
-      const pan = panTail(nu, c, tail);
-      if (pan.relativeError < im.relativeError) {
-        return { ...pan, reason: "Pan's finite-range form: the tail probability is small, and Pan computes it with relative accuracy" };
-      }
-    } catch {
-      // Pan could not vouch for its number: Imhof's stands
-    }
+    try { pan = panTail(nu, c, tail); } catch { pan = null; } // Pan could not vouch for its number
   }
-  return { ...im, reason: `Imhof integral on the spectrum (small tail; its relative error is ${im.relativeError.toExponential(1)}${ok.ok ? '' : `; Pan's form does not apply: ${ok.reason}`})` };
+  const shifted = contourTail(nu, c, tail);
+  if (pan && pan.relativeError <= shifted.relativeError && pan.relativeError < im.relativeError) {
+    return { ...pan, reason: "Pan's finite-range form: the tail probability is small, and Pan computes it with relative accuracy" };
+  }
+  if (shifted.relativeError < im.relativeError) {
+    const why = ok.ok ? (pan ? "more accurate here than Pan's form" : "Pan's form could not vouch for its number") : `Pan's form does not apply (${ok.reason})`;
+    return { ...shifted, reason: `inversion integral on a line through the saddlepoint: the tail probability is small and this keeps relative accuracy (${why})` };
+  }
+  return { ...im, reason: `Imhof integral on the spectrum (small tail; its relative error is ${im.relativeError.toExponential(1)})` };
 }

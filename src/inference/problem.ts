@@ -51,7 +51,10 @@ export function prepareProblem(x: RegressorInput, n: number, options: ProblemOpt
   const pairs = differencePairs(n, options.lag ?? 1, options.times);
   const operator = differenceMatrix(pairs);
   const basis = columnBasis(factored.qr);
-  const source = designSource(n - design.k, operator, basis, () => fastSpectrum(operator, basis));
+  // each computed nu_i may differ from the true one through rounding in the design's basis
+  // (about condition x eps in angle, times ||A|| <= its Gershgorin bound) and in the spectrum
+  const spectrumError = 32 * Number.EPSILON * 4 * Math.max(1, factored.condition);
+  const source = designSource(n - design.k, operator, basis, () => fastSpectrum(operator, basis), spectrumError);
   const distribution = new DwNullDistribution(source, { method: options.method, tolerance: options.tolerance });
   const warnings: string[] = [];
   if (factored.condition > CONDITION_WARNING) {
