@@ -18,32 +18,77 @@ export interface OptionSpec {
 export type OptionSpecs = Record<string, OptionSpec>;
 export type OptionValues = Record<string, string | boolean | undefined>;
 
-/** Parse argv against the specs; unknown options and missing values are DwErrors. */
+interface ParsedToken { kind: string; name?: string; value?: string }
+
+/**
+ * Parse argv against the specs. Unknown options, missing values, a value given to a switch and an
+ * option given twice with different values are DwErrors. A negative number may follow its option
+ * directly (`--d -0.5` is read as `--d=-0.5`).
+ *
+ * @example
+ * ```ts
+ * parseOptions(['--alpha', '0.01'], { alpha: { type: 'string', help: 'level' } }, 'critical').values.alpha; // '0.01'
+ * ```
+ */
 export function parseOptions(argv: string[], specs: OptionSpecs, command: string): { values: OptionValues; positionals: string[] } {
   const options: Record<string, { type: 'string' | 'boolean' }> = {};
   for (const [name, spec] of Object.entries(specs)) options[name] = { type: spec.type };
   options.help = { type: 'boolean' };
+  const args = joinNegativeValues(argv, specs);
+  let parsed: { values: Record<string, unknown>; positionals: string[]; tokens?: ParsedToken[] };
   try {
-    const { values, positionals } = parseArgs({ args: argv, options, strict: true, allowPositionals: true });
-    const out: OptionValues = {};
-    for (const [name, spec] of Object.entries(specs)) out[name] = (values as OptionValues)[name] ?? spec.default;
-    out.help = (values as OptionValues).help;
-    return { values: out, positionals };
+    parsed = parseArgs({ args, options, strict: true, allowPositionals: true, tokens: true }) as typeof parsed;
   } catch (err) {
     const e = err as { code?: string; message: string };
     const m = /'(-{1,2}[^' ]+)/.exec(e.message);
     const opt = m ? m[1] : '';
+    const name = opt.replace(/^-+/, '');
     if (e.code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') {
-      const near = closest(opt.replace(/^-+/, ''), Object.keys(specs));
+      const near = closest(name, Object.keys(specs));
       throw new DwError('OPTION_UNKNOWN', `'${command}' has no option ${opt}.`,
         near ? `Did you mean --${near}? See 'exact-dw ${command} --help'.` : `See 'exact-dw ${command} --help'.`);
     }
     if (e.code === 'ERR_PARSE_ARGS_INVALID_OPTION_VALUE') {
-      throw new DwError('OPTION_VALUE', `The option ${opt || ''} needs a value${opt ? '' : ` (${e.message})`}.`.replace('  ', ' '),
-        `See 'exact-dw ${command} --help'.`);
+      if (specs[name]?.type === 'boolean' || name === 'help') {
+        throw new DwError('OPTION_VALUE', `The switch --${name} takes no value.`, `Write --${name} alone.`);
+      }
+      throw new DwError('OPTION_VALUE', opt ? `The option ${opt} needs a value.` : `An option needs a value (${e.message.split('\n')[0]}).`,
+        `Write it as --${name || 'option'} VALUE; see 'exact-dw ${command} --help'.`);
     }
-    throw new DwError('OPTION_VALUE', e.message, `See 'exact-dw ${command} --help'.`);
+    throw new DwError('OPTION_VALUE', e.message.split('\n')[0], `See 'exact-dw ${command} --help'.`);
   }
+  const seen = new Map<string, string | boolean | undefined>();
+  for (const t of parsed.tokens ?? []) {
+    if (t.kind !== 'option' || t.name === undefined) continue;
+    const value = t.value ?? true;
+    if (seen.has(t.name) && seen.get(t.name) !== value) {
+      throw new DwError('OPTION_CONFLICT', `--${t.name} is given twice, as '${String(seen.get(t.name))}' and as '${String(value)}'.`,
+        `Give --${t.name} once.`);
+    }
+    seen.set(t.name, value);
+  }
+  const values = parsed.values as OptionValues;
+  const out: OptionValues = {};
+  for (const [name, spec] of Object.entries(specs)) out[name] = values[name] ?? spec.default;
+  out.help = values.help;
+  return { values: out, positionals: parsed.positionals };
+}
+
+/** `--opt -0.5` to `--opt=-0.5` for string options, so that negative numbers can follow an option. */
+function joinNegativeValues(argv: string[], specs: OptionSpecs): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    const name = a.startsWith('--') ? a.slice(2) : '';
+    const next = argv[i + 1];
+    if (name && !name.includes('=') && specs[name]?.type === 'string' && next !== undefined && /^-(\d|\.\d)/.test(next)) {
+      out.push(`${a}=${next}`);
+      i++;
+    } else {
+      out.push(a);
+    }
+  }
+  return out;
 }
 
 function closest(word: string, names: string[]): string | undefined {
@@ -74,14 +119,17 @@ export function required(values: OptionValues, name: string, command: string): s
   return v;
 }
 
-/** A number option, checked against an optional predicate. */
+/** A number option (plain decimal or scientific notation); anything else is OPTION_VALUE. */
 export function numberOption(values: OptionValues, name: string, fallback?: number): number | undefined {
   const v = values[name];
   if (v === undefined) return fallback;
   if (typeof v !== 'string' || !/^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(v.trim())) {
-    throw new DwError('OPTION_VALUE', `--${name} must be a number (got '${String(v)}').`, `Write it like 0.05 or 1.23.`);
+    const hint = typeof v === 'string' && /%\s*$/.test(v) ? `Write a level of ${v.trim()} as a fraction, e.g. 0.05 for 5%.`
+      : typeof v === 'string' && /^\s*[+-]?\d*,\d+\s*$/.test(v) ? 'Write it with a decimal point, e.g. 0.05.'
+        : 'Write it like 0.05 or 1.23.';
+    throw new DwError('OPTION_VALUE', `--${name} must be a number (got '${String(v)}').`, hint);
   }
-  return Number(v);
+  return Number(v.trim());
 }
 
 /** A whole-number option. */

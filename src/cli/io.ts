@@ -1,10 +1,10 @@
 /**
  * The CLI's contact with the outside world, behind an interface so that tests can run commands
  * in-process: output streams, reading files, and writing files without ever replacing one the
- * user already has (unless they ask with --force).
+ * user already has (unless they ask with --force), and without leaving a half-written file behind.
  */
-import { existsSync, readFileSync, statSync, writeFileSync, mkdirSync, openSync, closeSync } from 'node:fs';
-import { dirname } from 'node:path';
+import { closeSync, existsSync, mkdirSync, openSync, readFileSync, renameSync, statSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
+import { basename, dirname, join } from 'node:path';
 import { DwError } from '../errors.js';
 
 /** What a command may do. */
@@ -26,42 +26,107 @@ export const processIo: CliIo = {
   exists: (p) => existsSync(p),
 };
 
-/** Read a UTF-8 text file with errors a user can act on. */
+/**
+ * Read a text file with errors a user can act on. UTF-8 is expected (a byte-order mark is
+ * allowed); a file that is not valid UTF-8 is read as Windows-1252 (Latin-1), the encoding of
+ * older spreadsheet exports, so that its names survive; UTF-16 and binary files are refused.
+ *
+ * @throws DwError FILE_NOT_FOUND (no such file, or no such folder on the way to it),
+ *   FILE_UNREADABLE (a folder, or no permission), CSV_MALFORMED (UTF-16 or binary content)
+ * @example
+ * ```ts
+ * const text = readText('data.csv');
+ * ```
+ */
 export function readText(path: string): string {
   if (!existsSync(path)) {
+    const folder = dirname(path);
+    if (folder !== '.' && !existsSync(folder)) {
+      throw new DwError('FILE_NOT_FOUND', `The file '${path}' does not exist (there is no folder '${folder}').`,
+        'Check the path (it is relative to the current folder).', { file: path });
+    }
     throw new DwError('FILE_NOT_FOUND', `The file '${path}' does not exist.`, 'Check the path (it is relative to the current folder).', { file: path });
   }
-  if (statSync(path).isDirectory()) {
-    throw new DwError('FILE_UNREADABLE', `'${path}' is a folder, not a file.`, 'Give the path of a CSV file.', { file: path });
-  }
+  let bytes: Buffer;
   try {
-    return readFileSync(path, 'utf8');
+    if (statSync(path).isDirectory()) {
+      throw new DwError('FILE_UNREADABLE', `'${path}' is a folder, not a file.`, 'Give the path of a CSV file.', { file: path });
+    }
+    bytes = readFileSync(path);
   } catch (err) {
+    if (err instanceof DwError) throw err;
     throw new DwError('FILE_UNREADABLE', `The file '${path}' cannot be read (${(err as NodeJS.ErrnoException).code ?? 'error'}).`,
       'Check its permissions.', { file: path });
   }
+  return decodeText(bytes, path);
 }
 
-/** Create a file; with force false an existing file is never touched. */
-export function writeText(path: string, text: string, force: boolean): void {
-  if (existsSync(path) && !force) {
-    throw new DwError('FILE_EXISTS', `The file '${path}' already exists and was left as it is.`,
-      'Choose another name, or add --force to replace it.', { file: path });
+/** Bytes to text: UTF-8 (BOM kept for the parser to drop), else Windows-1252; UTF-16 is refused. */
+export function decodeText(bytes: Uint8Array, path = 'the input'): string {
+  if (bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff))) {
+    throw new DwError('CSV_MALFORMED', `'${path}' is UTF-16 text, not UTF-8.`,
+      "Save it again as 'CSV UTF-8' (or convert it, for example with iconv -f UTF-16 -t UTF-8).", { file: path });
   }
   try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return new TextDecoder('windows-1252').decode(bytes);
+  }
+}
+
+/**
+ * Create a file with `text`. With `force` false an existing file is never touched (the check and
+ * the creation are one atomic step, and a failed write removes only the file it created); with
+ * `force` true the new content is written beside the target and renamed over it, so the old file
+ * is replaced whole or not at all.
+ *
+ * @throws DwError FILE_EXISTS (the file is there and `force` is false), FILE_UNREADABLE (the
+ *   folder cannot be written, or the path is a folder)
+ * @example
+ * ```ts
+ * writeText('report.md', text, false); // refuses if report.md exists
+ * ```
+ */
+export function writeText(path: string, text: string, force: boolean): void {
+  const exists = () => new DwError('FILE_EXISTS', `The file '${path}' already exists and was left as it is.`,
+    'Choose another name, or add --force to replace it.', { file: path });
+  if (existsSync(path) && !force) throw exists();
+  if (existsSync(path) && statSync(path).isDirectory()) {
+    throw new DwError('FILE_UNREADABLE', `'${path}' is a folder; a file cannot be written there.`, 'Give a file name.', { file: path });
+  }
+  const cannot = (err: unknown) => new DwError('FILE_UNREADABLE', `The file '${path}' cannot be written (${(err as NodeJS.ErrnoException).code ?? 'error'}).`,
+    'Check that the folder exists and is writable.', { file: path });
+  try {
     mkdirSync(dirname(path), { recursive: true });
-    if (!force) {
-      // 'wx' fails if the file appeared in the meantime: never overwrite by accident
-      const fd = openSync(path, 'wx');
-      closeSync(fd);
-    }
-    writeFileSync(path, text, 'utf8');
   } catch (err) {
-    if (err instanceof DwError) throw err;
-    const code = (err as NodeJS.ErrnoException).code;
-    if (code === 'EEXIST') {
-      throw new DwError('FILE_EXISTS', `The file '${path}' already exists and was left as it is.`, 'Choose another name, or add --force.', { file: path });
+    throw cannot(err);
+  }
+  if (!force) {
+    let fd: number;
+    try {
+      fd = openSync(path, 'wx'); // fails if the file appeared in the meantime
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code === 'EEXIST') throw exists();
+      throw cannot(err);
     }
-    throw new DwError('FILE_UNREADABLE', `The file '${path}' cannot be written (${code ?? 'error'}).`, 'Check the folder exists and is writable.', { file: path });
+    try {
+      const data = Buffer.from(text, 'utf8');
+      let done = 0;
+      while (done < data.length) done += writeSync(fd, data, done, data.length - done);
+      closeSync(fd);
+    } catch (err) {
+      try { closeSync(fd); } catch { /* already closed */ }
+      try { unlinkSync(path); } catch { /* nothing more to undo */ }
+      throw cannot(err);
+    }
+    return;
+  }
+  const temp = join(dirname(path), `.${basename(path)}.${process.pid}.partial`);
+  try {
+    writeFileSync(temp, text, 'utf8');
+    renameSync(temp, path);
+  } catch (err) {
+    try { unlinkSync(temp); } catch { /* nothing more to undo */ }
+    throw cannot(err);
   }
 }

@@ -1,7 +1,7 @@
 /**
  * The CLI dispatcher: `exact-dw COMMAND [options]`. Exit status 0 on success, 2 on bad input or
- * an unmet limit (one line on stderr, no stack trace), 1 on an internal fault (a bug: the line
- * asks for a report).
+ * an unmet limit (one line on stderr, no stack trace: the message, the hint and the error code in
+ * brackets, e.g. `[CSV_RAGGED]`), 1 on an internal fault (a bug: the line asks for a report).
  */
 import { isDwError, DwError } from '../errors.js';
 import { parseOptions } from './args.js';
@@ -36,6 +36,15 @@ function overview(): string {
   return lines.join('\n') + '\n';
 }
 
+/** The command called `name`, or COMMAND_UNKNOWN naming the nearest one. */
+function findCommand(name: string): Command {
+  const command = COMMANDS.find((c) => c.name === name);
+  if (command) return command;
+  const near = COMMANDS.find((c) => c.name.startsWith(name.slice(0, 3)) && name.length >= 3);
+  throw new DwError('COMMAND_UNKNOWN', `There is no command '${name}'.`,
+    `${near ? `Did you mean '${near.name}'? ` : ''}Commands: ${COMMANDS.map((c) => c.name).join(', ')}. See 'exact-dw help'.`);
+}
+
 /**
  * Run the CLI on `argv` (without the node and script names) and return the exit status.
  *
@@ -48,16 +57,12 @@ export async function runCli(argv: string[], io: CliIo = processIo): Promise<num
   const [name, ...rest] = argv;
   try {
     if (name === undefined || name === 'help' || name === '--help' || name === '-h') {
-      const target = rest[0] && COMMANDS.find((c) => c.name === rest[0]);
-      io.out(target ? commandHelp(target) : overview());
+      if (rest[0] === undefined) { io.out(overview()); return 0; }
+      io.out(commandHelp(findCommand(rest[0])));
       return 0;
     }
     if (name === 'version' || name === '--version') { io.out(`${VERSION}\n`); return 0; }
-    const command = COMMANDS.find((c) => c.name === name);
-    if (!command) {
-      throw new DwError('COMMAND_UNKNOWN', `There is no command '${name}'.`,
-        `Commands: ${COMMANDS.map((c) => c.name).join(', ')}. See 'exact-dw help'.`);
-    }
+    const command = findCommand(name);
     const { values, positionals } = parseOptions(rest, command.options, command.name);
     if (values.help) { io.out(commandHelp(command)); return 0; }
     if (positionals.length > (command.positionals ?? 0)) {
@@ -67,10 +72,17 @@ export async function runCli(argv: string[], io: CliIo = processIo): Promise<num
     return await command.run({ values, positionals, io });
   } catch (err) {
     if (isDwError(err)) {
-      io.err(`exact-dw: ${(err as DwError).toLine()}\n`);
+      // one line whatever the message quotes (a quoted cell may hold a line break), ending with the
+      // stable code that docs/errors-and-limits.md lists
+      const e = err as DwError;
+      io.err(`exact-dw: ${e.toLine().replace(/[\u0000-\u001f\u007f]+/g, ' ')} [${e.code}]\n`);
       return 2;
     }
     const e = err as Error;
+    if (e instanceof RangeError && /allocation failed|Invalid (typed )?array length|out of memory/i.test(e.message)) {
+      io.err(`exact-dw: the problem is too large for the memory available (${e.message}). See the size limits in docs/errors-and-limits.md, or choose --method eigenfree, which needs no n x n matrix.\n`);
+      return 2;
+    }
     io.err(`exact-dw: internal error (${e?.message ?? String(err)}). This is a bug; please report it with the command you ran.\n`);
     return 1;
   }

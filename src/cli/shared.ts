@@ -3,7 +3,7 @@
  * that define the statistic (intercept, lag, time column, engine).
  */
 import { DwError } from '../errors.js';
-import { numericColumn, parseCsv, columnIndex, type DataTable } from '../data/csv.js';
+import { numericColumn, parseCsv, columnIndex, isTextColumn, type DataTable } from '../data/csv.js';
 import type { ProblemOptions } from '../inference/problem.js';
 import { choiceOption, integerOption, listOption, methodOption, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliIo } from './io.js';
@@ -29,7 +29,7 @@ export function loadTable(io: CliIo, path: string, values: OptionValues): DataTa
   if (d !== undefined) {
     const map: Record<string, ',' | ';' | '\t'> = { ',': ',', comma: ',', ';': ';', semicolon: ';', tab: '\t', '\t': '\t' };
     delimiter = map[String(d)];
-    if (!delimiter) throw new DwError('OPTION_VALUE', `--delimiter must be ',', ';' or 'tab' (got '${String(d)}').`, "Use --delimiter ';' for files with decimal commas.");
+    if (!delimiter) throw new DwError('OPTION_VALUE', `--delimiter must be ',', ';' or 'tab' (got '${String(d)}').`, "Use --delimiter ';' for files with decimal commas, --delimiter tab for tab-separated files.");
   }
   const decimal = values.decimal === undefined ? undefined : choiceOption(values, 'decimal', ['point', 'comma'] as const, 'point');
   return parseCsv(io.readText(path), { delimiter, decimal, source: `'${path}'` });
@@ -45,9 +45,34 @@ export function problemOptions(values: OptionValues, table?: DataTable): Problem
   let times: Float64Array | undefined;
   if (typeof timeCol === 'string') {
     if (!table) throw new DwError('OPTION_CONFLICT', '--time needs a data file with a time column.', 'Give the file that holds it.');
-    times = numericColumn(table, timeCol);
+    times = timeColumn(table, timeCol);
   }
   return { intercept: !values['no-intercept'], lag, times, method: methodOption(values) };
+}
+
+/**
+ * The time column, checked where it enters: whole numbers (exactly representable), strictly
+ * increasing, so that errors name the file, the data row and the column.
+ */
+export function timeColumn(table: DataTable, column: string): Float64Array {
+  const t = numericColumn(table, column);
+  const where = (i: number) => `data row ${i + 1}, column '${column}' of ${table.source}`;
+  for (let i = 0; i < t.length; i++) {
+    const detail = { file: table.source, row: i + 1, column, value: String(t[i]) };
+    if (!Number.isSafeInteger(t[i])) {
+      throw new DwError('TIME_INVALID', `The time ${table.rows[i][table.headers.indexOf(column)].trim()} at ${where(i)} is not a whole number${Number.isInteger(t[i]) ? ' that can be represented exactly' : ''}.`,
+        'The time column must hold integers such as years or quarter numbers (e.g. 2001Q3 as 4 * 2001 + 3).', detail);
+    }
+    if (i > 0 && t[i] === t[i - 1]) {
+      throw new DwError('TIME_INVALID', `The time ${t[i]} appears twice, at data rows ${i} and ${i + 1} of column '${column}' of ${table.source}.`,
+        'Each period may appear once: remove or merge the duplicated row.', detail);
+    }
+    if (i > 0 && t[i] < t[i - 1]) {
+      throw new DwError('TIME_INVALID', `The times decrease at ${where(i)}: ${t[i]} comes after ${t[i - 1]}.`,
+        'Sort the rows by time (oldest first).', detail);
+    }
+  }
+  return t;
 }
 
 /** Columns of a design file as regressors: every column except the time column. */
@@ -59,14 +84,21 @@ export function designColumns(table: DataTable, values: OptionValues, exclude: s
   return out;
 }
 
-/** The regressors of a data file: --x if given, else every other numeric column. */
+/**
+ * The regressors of a data file: --x if given, else every other column that holds numbers. A
+ * column of text (no cell a number: labels, country names) is left out by default; a column with
+ * numbers and some cells that are not is an error naming the first bad cell, never dropped silently.
+ */
 export function chooseRegressors(table: DataTable, values: OptionValues, yName: string): Record<string, Float64Array> {
   const listed = listOption(values, 'x');
   const time = typeof values.time === 'string' ? values.time : undefined;
+  if (time !== undefined && time === yName) {
+    throw new DwError('OPTION_CONFLICT', `'${yName}' is given both as --y and as --time.`, 'The time column must be a separate column of periods.', { column: yName });
+  }
   const out: Record<string, Float64Array> = {};
   if (listed) {
     for (const name of listed) {
-      if (name === yName) throw new DwError('OPTION_CONFLICT', `'${name}' is both y and a regressor.`, 'Remove it from --x.', { column: name });
+      if (name === yName) throw new DwError('OPTION_CONFLICT', `'${name}' is both --y and a regressor in --x.`, 'Remove it from --x.', { column: name });
       if (name === time) throw new DwError('OPTION_CONFLICT', `'${name}' is the time column and cannot also be a regressor.`, 'Remove it from --x, or add a trend column of your own.', { column: name });
       if (name in out) throw new DwError('COLUMN_REPEATED', `'${name}' is listed twice in --x.`, 'List each regressor once.', { column: name });
       out[name] = numericColumn(table, name);
@@ -75,7 +107,14 @@ export function chooseRegressors(table: DataTable, values: OptionValues, yName: 
   }
   for (const h of table.headers) {
     if (h === yName || h === time) continue;
-    try { out[h] = numericColumn(table, h); } catch { /* a text column is not a regressor by default */ }
+    if (isTextColumn(table, h)) continue; // a label column is not a regressor by default
+    try {
+      out[h] = numericColumn(table, h);
+    } catch (err) {
+      if (!(err instanceof DwError)) throw err;
+      throw new DwError(err.code, err.message,
+        `${err.hint} (Without --x every numeric column is a regressor; to leave '${h}' out, list the regressors with --x.)`, err.detail);
+    }
   }
   return out;
 }

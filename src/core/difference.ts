@@ -51,13 +51,17 @@ export function differencePairs(n: number, lag = 1, times?: ArrayLike<number>): 
     }
     for (let t = 0; t < n; t++) {
       const v = times[t];
-      if (!Number.isInteger(v)) {
+      if (!Number.isSafeInteger(v)) {
         throw new DwError('TIME_INVALID', `Time value ${v} at observation ${t + 1} is not a whole number.`,
           'The time column must hold integers such as years or quarter numbers.', { row: t + 1, value: String(v) });
       }
-      if (t > 0 && !(v > times[t - 1])) {
-        throw new DwError('TIME_INVALID', `Times must increase strictly; observation ${t + 1} has ${v} after ${times[t - 1]}.`,
-          'Sort the rows by time and remove duplicated periods.', { row: t + 1, value: String(v) });
+      if (t > 0 && v === times[t - 1]) {
+        throw new DwError('TIME_INVALID', `The time ${v} appears twice (observations ${t} and ${t + 1}).`,
+          'Each period may appear once: remove or merge the duplicated row.', { row: t + 1, value: String(v) });
+      }
+      if (t > 0 && v < times[t - 1]) {
+        throw new DwError('TIME_INVALID', `Times must increase; observation ${t + 1} has ${v} after ${times[t - 1]}.`,
+          'Sort the rows by time.', { row: t + 1, value: String(v) });
       }
     }
     // times are strictly increasing integers: the partner at time v - lag is at most lag rows back

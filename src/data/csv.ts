@@ -1,17 +1,26 @@
 /**
- * Reading a data table from CSV text: a header row, then one row per observation. Parsing of the
- * CSV grammar (quotes, embedded delimiters, line ends) is papaparse's; this module adds what a
- * statistics user needs on top: delimiter and decimal-comma detection, a UTF-8 byte-order mark,
- * clear errors that name the row and column, and numeric conversion of the columns asked for.
+ * Reading a data table from CSV text (RFC 4180 grammar): a header row, then one row per
+ * observation. Parsing of the grammar itself (quotes, embedded delimiters) is papaparse's; this
+ * module adds what a statistics user needs on top: delimiter and decimal-comma detection, a UTF-8
+ * byte-order mark, CR, LF or CRLF line ends, the empty column left by a trailing delimiter, and
+ * errors that name the row and column, with numeric conversion of the columns asked for.
+ *
+ * What is accepted and what is refused is listed, with the error codes, in
+ * docs/errors-and-limits.md (checked against test/catalogue.test.ts).
  */
 import Papa from 'papaparse';
 import { DwError } from '../errors.js';
 
 /** How the CSV text is to be read. */
 export interface CsvOptions {
-  /** Field delimiter; detected among `,` `;` and tab when omitted. */
+  /** Field delimiter; detected among `,` `;` and tab from the header row when omitted. */
   delimiter?: ',' | ';' | '\t';
-  /** Decimal mark; `comma` accepts 3,14 (only with `;` or tab delimiters). Detected when omitted. */
+  /**
+   * Decimal mark; `comma` reads 3,14 as 3.14. Detected when omitted: with `;` or tab delimiters a
+   * file whose numbers use commas (and none a point) is read with decimal commas; in a
+   * comma-delimited file a decimal comma is only possible inside quotes ("3,14") and must be asked
+   * for with `comma`.
+   */
   decimal?: 'point' | 'comma';
   /** File name used in messages. */
   source?: string;
@@ -26,68 +35,109 @@ export interface DataTable {
   source: string;
 }
 
-const MISSING = new Set(['', 'na', 'n/a', 'nan', 'null', 'none', '.', '-', '?', '#n/a']);
+/** Cell texts read as a missing value (compared in lower case, after trimming). */
+const MISSING = new Set(['', 'na', 'n/a', 'nan', 'null', 'none', '.', '-', '?', '#n/a', 'missing']);
 const POINT_NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 const COMMA_NUMBER = /^[+-]?(\d+(,\d*)?|,\d+)([eE][+-]?\d+)?$/;
+/** 1,234 or 12,345,678.9: digits grouped in threes by commas. */
+const COMMA_THOUSANDS = /^[+-]?\d{1,3}(,\d{3})+(\.\d*)?$/;
+/** 1.234 or 12.345.678,9: digits grouped in threes by points. */
+const POINT_THOUSANDS = /^[+-]?\d{1,3}(\.\d{3})+(,\d*)?$/;
+/** Smallest positive normal double: below it a value loses precision (or becomes 0). */
+const MIN_NORMAL = 2.2250738585072014e-308;
 
 /**
  * Parse CSV text into a {@link DataTable}.
+ *
+ * Accepted without options: a UTF-8 byte-order mark, CR / LF / CRLF line ends (also mixed),
+ * quoted fields ("1.5" is the number 1.5), `;` or tab delimiters with decimal commas, blank lines
+ * at the end, and a trailing delimiter on every row (an extra column that is empty throughout is
+ * dropped). Refused with a {@link DwError}: empty text (`CSV_EMPTY`), a header and no rows
+ * (`CSV_NO_DATA_ROWS`), an empty or repeated column name (`CSV_HEADER_EMPTY`,
+ * `CSV_HEADER_DUPLICATE`), a row with the wrong number of fields (`CSV_RAGGED`), a blank line between
+ * observations (`CELL_EMPTY`), an unclosed quote or binary content (`CSV_MALFORMED`), decimal commas
+ * and points mixed in one file (`CSV_AMBIGUOUS_DECIMAL`).
  *
  * @example
  * ```ts
  * const table = parseCsv('year,y,x\n2001,1.5,3\n2002,1.7,4\n');
  * numericColumn(table, 'y'); // Float64Array [1.5, 1.7]
+ * parseCsv('y;x\n1,5;3\n1,7;4\n').decimal; // 'comma'
  * ```
  */
 export function parseCsv(text: string, options: CsvOptions = {}): DataTable {
   const source = options.source ?? 'the CSV input';
+  const file = options.source;
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+  if (text.includes('\u0000')) {
+    throw new DwError('CSV_MALFORMED', `${cap(source)} is not CSV text (it holds NUL bytes: a spreadsheet workbook, or text saved as UTF-16?).`,
+      'Export the sheet as CSV (UTF-8) and give that file.', { file });
+  }
+  // one line-end convention, so that a file with mixed line ends still splits into its lines
+  text = text.replace(/\r\n?/g, '\n');
   if (text.trim() === '') {
-    throw new DwError('CSV_EMPTY', `${cap(source)} is empty.`, 'Give a CSV file with a header row and one row per observation.', { file: options.source });
+    throw new DwError('CSV_EMPTY', `${cap(source)} is empty.`, 'Give a CSV file with a header row and one row per observation.', { file });
   }
   const delimiter = options.delimiter ?? detectDelimiter(text);
-  const parsed = Papa.parse<string[]>(text, { delimiter, skipEmptyLines: 'greedy' });
+  const parsed = Papa.parse<string[]>(text, { delimiter, newline: '\n', skipEmptyLines: false });
   const fatal = parsed.errors.find((e) => e.type === 'Quotes');
   if (fatal) {
-    throw new DwError('CSV_MALFORMED', `${cap(source)} has an unclosed quotation mark near data row ${(fatal.row ?? 0)}.`,
-      'Close the quote or remove it.', { file: options.source, row: fatal.row ?? undefined });
+    const row = fatal.row ?? 0;
+    throw new DwError('CSV_MALFORMED', `${cap(source)} has an unclosed quotation mark in ${row === 0 ? 'the header row' : `data row ${row}`}.`,
+      'Close the quote or remove it.', { file, row: row || undefined });
   }
-  const all = parsed.data;
+  const all = parsed.data.map((r) => r.map((c) => c));
+  // blank lines: at the end they are ignored; between observations they are refused, because a
+  // silently dropped row would join two observations that are not neighbours in time
+  const blank = (r: string[]) => r.every((c) => c.trim() === '');
+  while (all.length > 0 && blank(all[all.length - 1])) all.pop();
+  while (all.length > 0 && blank(all[0])) all.shift();
   if (all.length === 0) {
-    throw new DwError('CSV_EMPTY', `${cap(source)} has no rows.`, 'Give a header row and data rows.', { file: options.source });
+    throw new DwError('CSV_EMPTY', `${cap(source)} has no rows.`, 'Give a header row and data rows.', { file });
   }
-  const headers = all[0].map((h) => h.trim());
+  let headers = all[0].map((h) => h.trim());
+  let rows = all.slice(1);
+  // a trailing delimiter on every line (or on every data line only) leaves an extra empty column
+  const lastEmpty = (r: string[], width: number) => r.length === width && r[width - 1].trim() === '';
+  if (headers.length > 1 && headers[headers.length - 1] === '' && rows.length > 0 && rows.every((r) => lastEmpty(r, headers.length))) {
+    headers = headers.slice(0, -1);
+    rows = rows.map((r) => r.slice(0, -1));
+  } else if (rows.length > 0 && rows.every((r) => lastEmpty(r, headers.length + 1))) {
+    rows = rows.map((r) => r.slice(0, -1));
+  }
+  const looksNumeric = (h: string) => POINT_NUMBER.test(h) || COMMA_NUMBER.test(h);
+  if (headers.every(looksNumeric)) {
+    throw new DwError('CSV_HEADER_EMPTY', `The first row of ${source} holds numbers (${headers.slice(0, 3).join(', ')}${headers.length > 3 ? ', ...' : ''}), not column names.`,
+      'Add a header row naming each column.', { file });
+  }
   headers.forEach((h, j) => {
     if (h === '') {
       throw new DwError('CSV_HEADER_EMPTY', `Column ${j + 1} of ${source} has an empty name in the header row.`,
-        'Give every column a name in the first row.', { file: options.source });
-    }
-    if (/^[+-]?[\d.,]+$/.test(h) && headers.every((x) => /^[+-]?[\d.,eE+-]+$/.test(x))) {
-      throw new DwError('CSV_HEADER_EMPTY', `The first row of ${source} holds numbers (${headers.slice(0, 3).join(', ')}...), not column names.`,
-        'Add a header row naming each column.', { file: options.source });
+        'Give every column a name in the first row.', { file });
     }
   });
   const dup = headers.find((h, j) => headers.indexOf(h) !== j);
   if (dup !== undefined) {
-    throw new DwError('CSV_HEADER_DUPLICATE', `The column name '${dup}' appears twice in the header of ${source}.`,
-      'Give each column a distinct name.', { file: options.source, column: dup });
+    throw new DwError('CSV_HEADER_DUPLICATE', `The column name '${dup}' appears more than once in the header of ${source}.`,
+      'Give each column a distinct name.', { file, column: dup });
   }
-  const rows = all.slice(1);
   if (rows.length === 0) {
-    throw new DwError('CSV_NO_DATA_ROWS', `${cap(source)} has a header but no data rows.`, 'Add one row per observation.', { file: options.source });
+    throw new DwError('CSV_NO_DATA_ROWS', `${cap(source)} has a header but no data rows.`, 'Add one row per observation.', { file });
   }
   rows.forEach((r, i) => {
+    if (blank(r)) {
+      throw new DwError('CELL_EMPTY', `Data row ${i + 1} of ${source} is blank.`,
+        'Remove the blank line; if it stands for a missing period, remove it and give a --time column so the gap is honoured.',
+        { file, row: i + 1 });
+    }
     if (r.length !== headers.length) {
-      throw new DwError('CSV_RAGGED', `Data row ${i + 1} of ${source} has ${r.length} fields; the header has ${headers.length}.`,
-        `Make every row have ${headers.length} fields${delimiter !== ',' ? '' : ' (if numbers use decimal commas, use ; as the delimiter)'}.`,
-        { file: options.source, row: i + 1 });
+      const splitComma = delimiter === ',' && r.length > headers.length;
+      throw new DwError('CSV_RAGGED', `Data row ${i + 1} of ${source} has ${r.length} field${r.length === 1 ? '' : 's'}; the header has ${headers.length}.`,
+        `Make every row have ${headers.length} fields${splitComma ? " (numbers with decimal commas need ';' as the delimiter, or quotes)" : ''}.`,
+        { file, row: i + 1 });
     }
   });
-  const decimal = options.decimal ?? detectDecimal(rows, delimiter, source, options.source);
-  if (decimal === 'comma' && delimiter === ',') {
-    throw new DwError('OPTION_CONFLICT', 'A decimal comma cannot be read from a comma-delimited file.',
-      'Use ; or tab as the delimiter, or decimal points.');
-  }
+  const decimal = options.decimal ?? detectDecimal(rows, delimiter, source, file);
   return { headers, rows, delimiter, decimal, source };
 }
 
@@ -95,71 +145,106 @@ function cap(s: string): string {
   return s.charAt(0).toUpperCase() + s.slice(1);
 }
 
-/** The delimiter that splits the header into the most fields, consistently over the first lines. */
+/**
+ * The delimiter that splits the header row into the most fields; ties (for example a header of
+ * one name) are broken by the data rows (the delimiter that gives the same count on most of them),
+ * then in the order `,` `;` tab.
+ */
 function detectDelimiter(text: string): ',' | ';' | '\t' {
-  const lines = text.split(/\r\n|\n|\r/).filter((l) => l.trim() !== '').slice(0, 20);
-  let best: ',' | ';' | '\t' = ',';
-  let bestScore = -1;
-  for (const d of [',', ';', '\t'] as const) {
-    const counts = lines.map((l) => Papa.parse<string[]>(l, { delimiter: d }).data[0]?.length ?? 1);
-    const consistent = counts.every((c) => c === counts[0]);
-    const score = consistent ? counts[0] : 0;
-    if (score > bestScore || (score === bestScore && d === ',' && best !== ',')) {
-      if (score > bestScore) { best = d; bestScore = score; }
-    }
+  const lines = text.split('\n').filter((l) => l.trim() !== '').slice(0, 50);
+  const count = (line: string, d: string) => Papa.parse<string[]>(line, { delimiter: d }).data[0]?.length ?? 1;
+  const candidates = [',', ';', '\t'] as const;
+  const header = candidates.map((d) => count(lines[0], d));
+  const best = Math.max(...header);
+  const tied = candidates.filter((_, i) => header[i] === best);
+  if (tied.length === 1) return tied[0];
+  let choice: ',' | ';' | '\t' = tied[0];
+  let agree = -1;
+  for (const d of tied) {
+    const counts = lines.slice(1).map((l) => count(l, d));
+    const first = counts[0] ?? 1;
+    const a = first > 1 ? counts.filter((c) => c === first).length : 0;
+    if (a > agree) { agree = a; choice = d; }
   }
-  return best;
+  return choice;
 }
 
+/** Decimal commas or points, from the cells of a `;`- or tab-delimited file. */
 function detectDecimal(rows: string[][], delimiter: string, source: string, file?: string): 'point' | 'comma' {
   if (delimiter === ',') return 'point';
   let commas = 0;
   let points = 0;
+  let commaCell = '';
+  let pointCell = '';
   for (const r of rows) {
     for (const cell of r) {
       const v = cell.trim();
-      if (COMMA_NUMBER.test(v) && v.includes(',')) commas++;
-      if (POINT_NUMBER.test(v) && v.includes('.')) points++;
+      if (v.includes(',') && COMMA_NUMBER.test(v)) { commas++; commaCell ||= v; }
+      if (v.includes('.') && POINT_NUMBER.test(v)) { points++; pointCell ||= v; }
     }
   }
   if (commas > 0 && points > 0) {
-    throw new DwError('CSV_AMBIGUOUS_DECIMAL', `${cap(source)} mixes decimal commas (${commas} cells) and decimal points (${points} cells).`,
-      'Say which is the decimal mark with --decimal comma or --decimal point.', { file });
+    throw new DwError('CSV_AMBIGUOUS_DECIMAL',
+      `${cap(source)} mixes decimal commas (${commas} cells, such as '${commaCell}') and decimal points (${points} cells, such as '${pointCell}').`,
+      "Say which is the decimal mark with --decimal comma or --decimal point (a point may be a thousands separator: remove those).", { file });
   }
   return commas > 0 ? 'comma' : 'point';
 }
 
 /**
  * Parse one cell as a number under the table's decimal convention, or throw an error naming the
- * row and column.
+ * row and column: `CELL_EMPTY` (empty, blank or a missing-value code such as NA or NaN),
+ * `CELL_NOT_FINITE` (Inf, or a magnitude outside the double range), `CELL_NOT_NUMERIC` (anything
+ * else that is not a plain number).
+ *
+ * @example
+ * ```ts
+ * parseCell(parseCsv('y\n1\n'), 0, 'y', ' 2.5 '); // 2.5
+ * ```
  */
 export function parseCell(table: DataTable, row: number, column: string, text: string): number {
   let v = text.trim();
   const where = `data row ${row + 1}, column '${column}' of ${table.source}`;
+  const detail = { file: table.source, row: row + 1, column, value: v };
   if (MISSING.has(v.toLowerCase())) {
-    throw new DwError('CELL_EMPTY', `Missing value ${v === '' ? '(empty cell)' : `'${v}'`} at ${where}.`,
-      'The exact test needs a complete series: fill the value or remove the row (and declare the gap with --time).',
-      { file: table.source, row: row + 1, column, value: v });
+    throw new DwError('CELL_EMPTY', `Missing value ${v === '' ? `(${text === '' ? 'empty' : 'blank'} cell)` : `'${v}'`} at ${where}.`,
+      'The exact test needs a complete series: fill the value or remove the row (and declare the gap with --time).', detail);
   }
-  if (/^[+-]?(inf|infinity)$/i.test(v)) {
-    throw new DwError('CELL_NOT_FINITE', `Infinite value '${v}' at ${where}.`, 'Every value must be a finite number.',
-      { file: table.source, row: row + 1, column, value: v });
+  if (/^[+-]?(inf|infinity|∞)$/i.test(v)) {
+    throw new DwError('CELL_NOT_FINITE', `Infinite value '${v}' at ${where}.`, 'Every value must be a finite number.', detail);
   }
   const pattern = table.decimal === 'comma' ? COMMA_NUMBER : POINT_NUMBER;
   if (!pattern.test(v)) {
-    const hint = table.decimal === 'point' && COMMA_NUMBER.test(v)
-      ? 'This looks like a decimal comma: use ; as the delimiter and --decimal comma.'
-      : 'Every value in a column used by the model must be a plain number such as 12.5 or -3e-4.';
-    throw new DwError('CELL_NOT_NUMERIC', `'${v}' at ${where} is not a number.`, hint,
-      { file: table.source, row: row + 1, column, value: v });
+    throw new DwError('CELL_NOT_NUMERIC', `'${v}' at ${where} is not a number.`, notNumberHint(table, v), detail);
   }
   if (table.decimal === 'comma') v = v.replace(',', '.');
   const x = Number(v);
   if (!Number.isFinite(x)) {
-    throw new DwError('CELL_NOT_FINITE', `'${text.trim()}' at ${where} is too large to represent.`, 'Rescale the column.',
-      { file: table.source, row: row + 1, column, value: v });
+    throw new DwError('CELL_NOT_FINITE', `'${text.trim()}' at ${where} is too large to represent as a double-precision number.`,
+      'Rescale the column (for example express it in thousands).', detail);
+  }
+  if (x !== 0 && Math.abs(x) < MIN_NORMAL) {
+    throw new DwError('CELL_NOT_FINITE', `'${text.trim()}' at ${where} is too small to represent as a double-precision number without loss.`,
+      'Rescale the column (multiply it by a power of ten).', detail);
   }
   return x;
+}
+
+function notNumberHint(table: DataTable, v: string): string {
+  if (table.decimal === 'point' && COMMA_THOUSANDS.test(v) && table.delimiter === ',') {
+    return `If ${v} groups thousands, remove the commas; if it has a decimal comma, add --decimal comma.`;
+  }
+  if (table.decimal === 'point' && COMMA_NUMBER.test(v)) {
+    return table.delimiter === ','
+      ? 'This looks like a decimal comma: add --decimal comma (the cells must be quoted), or save the file with ; as the delimiter.'
+      : 'This looks like a decimal comma: add --decimal comma.';
+  }
+  if (table.decimal === 'comma' && (POINT_THOUSANDS.test(v) || POINT_NUMBER.test(v))) {
+    return `The file is read with decimal commas; if the points in ${v} group thousands, remove them, otherwise add --decimal point.`;
+  }
+  if (/%$/.test(v)) return 'Remove the % sign (write 5% as 5 or 0.05).';
+  if (/^[\u2212\u2013]/.test(v)) return 'Use the ASCII minus sign (-) instead of a typographic one.';
+  return 'Every value in a column used by the model must be a plain number such as 12.5 or -3e-4.';
 }
 
 /** The named column as numbers; throws COLUMN_UNKNOWN for a name not in the header. */
@@ -173,8 +258,9 @@ export function columnIndex(table: DataTable, column: string): number {
   const j = table.headers.indexOf(column);
   if (j < 0) {
     const list = table.headers.map((h) => `'${h}'`).join(', ');
+    const near = table.headers.find((h) => h.toLowerCase() === column.toLowerCase());
     throw new DwError('COLUMN_UNKNOWN', `There is no column '${column}' in ${table.source}; its columns are ${list}.`,
-      'Check the spelling (names are case-sensitive).', { file: table.source, column });
+      near ? `Did you mean '${near}'? Names are case-sensitive.` : 'Check the spelling (names are case-sensitive).', { file: table.source, column });
   }
   return j;
 }
@@ -182,4 +268,14 @@ export function columnIndex(table: DataTable, column: string): number {
 /** True when every cell of the column parses as a number. */
 export function isNumericColumn(table: DataTable, column: string): boolean {
   try { numericColumn(table, column); return true; } catch { return false; }
+}
+
+/**
+ * True when no cell of the column is a number (a label or text column). A column with some numbers
+ * and some other cells is neither text nor numeric: it is data with a fault in it.
+ */
+export function isTextColumn(table: DataTable, column: string): boolean {
+  const j = columnIndex(table, column);
+  const pattern = table.decimal === 'comma' ? COMMA_NUMBER : POINT_NUMBER;
+  return table.rows.every((r) => !pattern.test(r[j].trim()));
 }

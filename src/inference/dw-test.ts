@@ -7,7 +7,7 @@ import { DwError } from '../errors.js';
 import { durbinWatson } from '../core/difference.js';
 import type { EngineName, MethodChoice } from '../core/types.js';
 import { fitLeastSquares, type Coefficient } from '../model/ols.js';
-import type { RegressorInput } from '../model/design.js';
+import { designErrorAllowance, type RegressorInput } from '../model/design.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from './problem.js';
 
 /** The alternative hypothesis: positive or negative first-order autocorrelation, or either. */
@@ -232,12 +232,21 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
   let residuals: Float64Array;
   let coefficients: Coefficient[] | null = null;
   let rSquared: number | null = null;
+  // how far rounding in X and y can move d itself (measured bound, src/model/design.ts)
+  let dAllowance = 0;
   if (input.y !== undefined) {
     const fit = fitLeastSquares(problem.factored, input.y);
     residuals = fit.residuals;
     coefficients = fit.coefficients;
     rSquared = fit.rSquared;
+    dAllowance = designErrorAllowance(problem.factored.condition, fit.amplification);
   } else {
+    const raw = input.residuals as ArrayLike<unknown>;
+    for (let i = 0; i < n; i++) {
+      if (typeof raw[i] !== 'number') {
+        throw new DwError('CELL_NOT_NUMERIC', `Residual ${i + 1} is ${String(raw[i])}, not a number.`, 'Every residual must be a finite number.', { row: i + 1 });
+      }
+    }
     residuals = Float64Array.from(input.residuals as ArrayLike<number>);
     for (let i = 0; i < n; i++) {
       if (!Number.isFinite(residuals[i])) {
@@ -251,6 +260,14 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
   }
   const d = durbinWatson(residuals, problem.pairs);
   const p = pValuesFor(problem, d);
+  if (dAllowance > 0) {
+    // d is known to within dAllowance: add the density of d there times that (twice, for safety)
+    const dist0 = problem.distribution;
+    const [lo, hi] = dist0.support;
+    const h = Math.max(1e-6, 1e3 * dAllowance) * (hi - lo);
+    const slope = Math.abs(dist0.cdf(Math.min(hi, d + h)) - dist0.cdf(Math.max(lo, d - h))) / (2 * h);
+    p.errorBound += 2 * slope * dAllowance * (p.pTwoSided < 1 ? 2 : 1);
+  }
   const pValue = alternative === 'positive' ? p.pPositive : alternative === 'negative' ? p.pNegative : p.pTwoSided;
   const tailLevel = alternative === 'two-sided' ? alpha / 2 : alpha;
   const dist = problem.distribution;

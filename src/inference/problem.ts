@@ -5,6 +5,7 @@
 import { differenceMatrix, differencePairs, type DifferencePairs } from '../core/difference.js';
 import { columnBasis } from '../core/qr.js';
 import { fastSpectrum } from '../core/fast-spectrum.js';
+import { checkSize } from '../limits.js';
 import type { BandMatrix, MethodChoice } from '../core/types.js';
 import { DwNullDistribution } from '../distribution/null-distribution.js';
 import { designSource } from '../distribution/source.js';
@@ -47,6 +48,7 @@ export interface DwProblem {
  */
 export function prepareProblem(x: RegressorInput, n: number, options: ProblemOptions = {}): DwProblem {
   const design = buildDesign(x, n, { intercept: options.intercept, names: options.names });
+  checkSize(n, design.k, options.method ?? 'auto', { spectrum: 'structured', bandwidth: options.lag ?? 1 });
   const factored = factorDesign(design);
   const pairs = differencePairs(n, options.lag ?? 1, options.times);
   const operator = differenceMatrix(pairs);

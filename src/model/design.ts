@@ -73,18 +73,23 @@ export function buildDesign(x: RegressorInput, n: number, options: DesignOptions
     }
     for (let j = 0; j < p; j++) {
       const col = new Float64Array(n);
-      for (let i = 0; i < n; i++) col[i] = x[i][j];
+      for (let i = 0; i < n; i++) col[i] = checkedValue(x[i][j], names[j], i);
       columns.push(col);
     }
   } else {
     names = Object.keys(x);
     for (const name of names) {
       const v = x[name];
-      if (v.length !== n) {
+      if (v !== null && v !== undefined && v.length !== n) {
         throw new DwError('LENGTH_MISMATCH', `Column '${name}' has ${v.length} values but there are ${n} observations.`,
           'Give every column one value per observation.', { column: name });
       }
-      columns.push(Float64Array.from(v as ArrayLike<number>));
+      if (v === null || v === undefined || typeof v.length !== 'number') {
+        throw new DwError('LENGTH_MISMATCH', `Column '${name}' is not a list of numbers.`, 'Give every column as an array of numbers.', { column: name });
+      }
+      const col = new Float64Array(n);
+      for (let i = 0; i < n; i++) col[i] = checkedValue(v[i], name, i);
+      columns.push(col);
     }
   }
   const seen = new Set<string>();
@@ -131,12 +136,24 @@ export function buildDesign(x: RegressorInput, n: number, options: DesignOptions
       'Give at least one regressor or keep the intercept.');
   }
   if (n < k + 2) {
-    throw new DwError('TOO_FEW_ROWS', `There are ${n} observations for ${k} columns (including any intercept); at least k + 2 = ${k + 2} are needed.`,
+    throw new DwError('TOO_FEW_ROWS',
+      `There ${n === 1 ? 'is 1 observation' : `are ${n} observations`} for ${k} column${k === 1 ? '' : 's'} (including any intercept); at least k + 2 = ${k + 2} are needed, so that the residuals have two or more degrees of freedom.`,
       'Use more observations or fewer regressors.');
   }
   const xs = new Float64Array(n * k);
   columns.forEach((col, j) => xs.set(col, j * n));
   return { n, k, names, x: xs, interceptIndex, interceptAdded };
+}
+
+/** One regressor value as a finite number; null, strings and other types are refused, not coerced. */
+function checkedValue(v: unknown, name: string, i: number): number {
+  if (typeof v !== 'number' || !Number.isFinite(v)) {
+    throw new DwError(typeof v === 'number' ? 'CELL_NOT_FINITE' : 'CELL_NOT_NUMERIC',
+      `Regressor '${name}' has the value ${typeof v === 'string' ? `'${v}'` : String(v)} at observation ${i + 1}.`,
+      typeof v === 'number' ? 'Every value must be a finite number; remove or fill the observation.' : 'Every value must be a number (not text, null or undefined).',
+      { row: i + 1, column: name, value: String(v) });
+  }
+  return v;
 }
 
 function isConstant(col: Float64Array): boolean {
@@ -156,20 +173,59 @@ export interface FactoredDesign {
   shift: Float64Array;
   /** Column scales divided by. */
   scale: Float64Array;
-  /** Estimate of the condition number of P (Frobenius norms of R and R^-1). */
+  /** Estimate of the condition number of P (Frobenius norms of R and R^-1; at most k times the 2-norm one). */
   condition: number;
 }
 
-/** Relative size of |R_jj| below which a column counts as a linear combination of the others. */
+/**
+ * Relative size of |R_jj| (of the centred, unit-length columns) below which a column counts as a
+ * linear combination of the columns before it.
+ */
 export const RANK_TOLERANCE = 1e-10;
-/** Condition number above which the design is refused (see README, errors and limits). */
-export const CONDITION_LIMIT = 1e10;
-/** Condition number above which a warning is given. */
-export const CONDITION_WARNING = 1e7;
+/**
+ * Condition number (of the centred and scaled design, {@link FactoredDesign.condition}) above which
+ * the design is refused with ILL_CONDITIONED. Measured (test/robustness.test.ts, table in
+ * docs/errors-and-limits.md): the p-value of a design moves by at most about
+ * {@link CONDITION_ERROR_FACTOR} x condition x 2^-52 through rounding in the design, so at this
+ * limit by less than 1e-8 (the statistic d likewise).
+ */
+export const CONDITION_LIMIT = 1e7;
+/** Condition number above which a warning is given (rounding in the design may then exceed 1e-10 in p). */
+export const CONDITION_WARNING = 1e5;
+/**
+ * Largest measured ratio |error in d or p| / (condition x 2^-52) over the designs of
+ * test/robustness.test.ts (polynomial trends in raw years against their centred form), rounded up.
+ */
+export const CONDITION_ERROR_FACTOR = 1;
 
 /**
- * Factorise the design with rank detection. Throws RANK_DEFICIENT naming the columns that are
- * (numerically) linear combinations of earlier ones, and ILL_CONDITIONED beyond CONDITION_LIMIT.
+ * Allowance for rounding in the design: a bound (by measurement, see
+ * {@link CONDITION_ERROR_FACTOR}) on how far a p-value at a given d (amplification 1) or the
+ * statistic d of a fit (amplification ||y - ybar|| / ||e||, `LeastSquaresFit.amplification`) can
+ * move because X and y are held in double precision. To be added to an engine's error bound; for
+ * the p-value of a fitted d add the density of d times the allowance of d as well.
+ *
+ * @example
+ * ```ts
+ * designErrorAllowance(factorDesign(design).condition); // e.g. 2e-15 for a well-conditioned design
+ * ```
+ */
+export function designErrorAllowance(condition: number, amplification = 1): number {
+  return CONDITION_ERROR_FACTOR * Math.max(1, condition) * Number.EPSILON * Math.max(1, amplification);
+}
+
+/**
+ * Factorise the design with rank detection. Each column is first scaled by a power of two (exact)
+ * so that values near 1e300 or 1e-300 neither overflow nor underflow, then centred (when the model
+ * has an intercept) and scaled to unit length; the column space, and so d and its distribution,
+ * are unchanged. Throws RANK_DEFICIENT naming the columns that are (numerically) linear
+ * combinations of earlier ones, and ILL_CONDITIONED beyond {@link CONDITION_LIMIT}.
+ *
+ * @example
+ * ```ts
+ * const fd = factorDesign(buildDesign({ year: [1990, 1991, 1992, 1993, 1994] }, 5));
+ * fd.condition; // small: the year is centred internally
+ * ```
  */
 export function factorDesign(design: Design): FactoredDesign {
   const { n, k, x, interceptIndex } = design;
@@ -178,18 +234,26 @@ export function factorDesign(design: Design): FactoredDesign {
   const p = new Float64Array(n * k);
   for (let j = 0; j < k; j++) {
     const off = j * n;
+    let top = 0;
+    for (let i = 0; i < n; i++) top = Math.max(top, Math.abs(x[off + i]));
+    // a power of two: dividing by it is exact
+    const pow = top > 0 ? 2 ** Math.floor(Math.log2(top)) : 1;
+    for (let i = 0; i < n; i++) p[off + i] = x[off + i] / pow;
     let mu = 0;
     if (interceptIndex >= 0 && j !== interceptIndex) {
-      for (let i = 0; i < n; i++) mu += x[off + i] / n;
+      for (let i = 0; i < n; i++) mu += p[off + i];
+      mu /= n;
+      for (let i = 0; i < n; i++) p[off + i] -= mu;
     }
-    shift[j] = mu;
     let big = 0;
-    for (let i = 0; i < n; i++) { p[off + i] = x[off + i] - mu; big = Math.max(big, Math.abs(p[off + i])); }
+    for (let i = 0; i < n; i++) big = Math.max(big, Math.abs(p[off + i]));
     let ss = 0;
     for (let i = 0; i < n; i++) { const v = big > 0 ? p[off + i] / big : 0; ss += v * v; }
     const s = big * Math.sqrt(ss);
-    scale[j] = s > 0 ? s : 1;
-    for (let i = 0; i < n; i++) p[off + i] /= scale[j];
+    const unit = s > 0 ? s : 1;
+    for (let i = 0; i < n; i++) p[off + i] /= unit;
+    shift[j] = mu * pow;
+    scale[j] = unit * pow;
   }
   // find every column that is (numerically) in the span of the earlier independent ones
   const bad: number[] = [];
@@ -204,17 +268,19 @@ export function factorDesign(design: Design): FactoredDesign {
   }
   if (bad.length > 0) {
     const list = bad.map((j) => `'${design.names[j]}'`).join(', ');
+    const constantDup = bad.some((j) => isConstant(x.subarray(j * n, j * n + n)));
     throw new DwError('RANK_DEFICIENT',
-      `The design is rank deficient: ${list} ${bad.length === 1 ? 'is a linear combination' : 'are linear combinations'} of the other columns${bad.some((j) => isConstant(x.subarray(j * n, j * n + n))) ? ' (a constant column duplicates the intercept)' : ''}.`,
-      `Remove ${bad.length === 1 ? 'that column' : 'those columns'} (or the columns they duplicate) and run again.`,
+      `The design is rank deficient: ${list} ${bad.length === 1 ? 'is a linear combination' : 'are linear combinations'} of the other columns (to within a relative ${RANK_TOLERANCE.toExponential(0)})${constantDup ? '; a constant column duplicates the intercept' : ''}.`,
+      `Remove ${bad.length === 1 ? 'that column' : 'those columns'} (or the columns ${bad.length === 1 ? 'it duplicates' : 'they duplicate'}); if ${bad.length === 1 ? 'it is' : 'they are'} a power or product of other columns (such as year^2), centre the variable first (year - 2005) and rebuild ${bad.length === 1 ? 'it' : 'them'}.`,
       { column: design.names[bad[0]] });
   }
   const qr = householderQR(p, n, k);
   const condition = conditionEstimate(qr);
-  if (condition > CONDITION_LIMIT) {
+  if (!(condition <= CONDITION_LIMIT)) {
     throw new DwError('ILL_CONDITIONED',
-      `The design is too ill-conditioned for an exact answer (condition number about ${condition.toExponential(1)}, limit ${CONDITION_LIMIT.toExponential(0)}).`,
-      'Centre and scale the regressors (for example years minus their mean, divided by 10) or use orthogonal polynomials for trends.');
+      `The design is too ill-conditioned for an exact answer: its condition number (after centring and scaling the columns) is about ${condition.toExponential(1)}, above the limit ${CONDITION_LIMIT.toExponential(0)}, so rounding could move the p-value by more than 1e-8.`,
+      'Centre and scale the regressors (for example (year - 2005) / 10), or use orthogonal polynomials for trends; see docs/errors-and-limits.md.',
+      { value: String(condition) });
   }
   return { design, qr, shift, scale, condition };
 }

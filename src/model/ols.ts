@@ -5,7 +5,16 @@
  */
 import { DwError } from '../errors.js';
 import { applyQ, applyQt } from '../core/qr.js';
-import type { FactoredDesign } from './design.js';
+import { designErrorAllowance, type FactoredDesign } from './design.js';
+
+/**
+ * Largest rounding error in d that a fit may carry. Rounding in the design and the fit moves the
+ * residuals by about condition x 2^-52 x ||y - ybar|| (measured: {@link designErrorAllowance}), so
+ * d moves by that allowance times the amplification ||y - ybar|| / ||e||. A fit whose allowance
+ * exceeds this is refused with RESIDUALS_ZERO: y is then, to working precision, a linear
+ * combination of the regressors (for a well-conditioned design: ||e|| below about 2e-8 ||y - ybar||).
+ */
+export const D_ROUNDING_LIMIT = 1e-8;
 
 /** One estimated coefficient. */
 export interface Coefficient {
@@ -26,6 +35,12 @@ export interface LeastSquaresFit {
   rSquared: number;
   /** Covariance matrix of the coefficients, row-major k x k. */
   covariance: Float64Array;
+  /**
+   * ||y - ybar|| / ||e|| (||y|| / ||e|| without an intercept): how much rounding in the fit is
+   * amplified in the residuals; `designErrorAllowance(condition, amplification)` bounds the
+   * rounding error of d.
+   */
+  amplification: number;
 }
 
 /**
@@ -43,18 +58,37 @@ export function fitLeastSquares(fd: FactoredDesign, y: ArrayLike<number>): Least
   if (y.length !== n) {
     throw new DwError('LENGTH_MISMATCH', `y has ${y.length} values but the design has ${n} rows.`, 'Give one y per observation.');
   }
-  let yBig = 0;
   for (let i = 0; i < n; i++) {
-    if (!Number.isFinite(y[i])) {
-      throw new DwError('CELL_NOT_FINITE', `y has the value ${y[i]} at observation ${i + 1}.`,
+    if (typeof y[i] !== 'number' || !Number.isFinite(y[i])) {
+      throw new DwError(typeof y[i] === 'number' ? 'CELL_NOT_FINITE' : 'CELL_NOT_NUMERIC', `y has the value ${String(y[i])} at observation ${i + 1}.`,
         'Every value must be a finite number; remove or fill the observation.', { row: i + 1, value: String(y[i]) });
     }
-    yBig = Math.max(yBig, Math.abs(y[i]));
   }
-  // work in y / yBig so that squares neither overflow nor underflow
-  const ys = yBig > 0 ? yBig : 1;
+  let constant = true;
+  for (let i = 1; i < n; i++) if (y[i] !== y[0]) constant = false;
+  if (constant) {
+    throw new DwError('RESIDUALS_ZERO', `y is constant (every value is ${y[0]}), so ${interceptIndex >= 0 || y[0] === 0 ? 'every residual is zero and d is undefined' : 'it carries no information about serial correlation'}.`,
+      'Check that the right column was chosen as y.');
+  }
+  // Work in y / 2^e (exact) so that squares neither overflow nor underflow, and, when the model
+  // has an intercept, about the mean of y: the mean lies in col(X), so the residuals are the same,
+  // and rounding then scales with the spread of y rather than its level (y -> a y + b leaves d as it is).
+  let top = 0;
+  for (let i = 0; i < n; i++) top = Math.max(top, Math.abs(y[i]));
+  const pow = 2 ** Math.floor(Math.log2(top));
+  const yc = new Float64Array(n);
+  let ybar = 0;
+  for (let i = 0; i < n; i++) yc[i] = y[i] / pow;
+  if (interceptIndex >= 0) {
+    for (let i = 0; i < n; i++) ybar += yc[i];
+    ybar /= n;
+    for (let i = 0; i < n; i++) yc[i] -= ybar;
+  }
+  let spread = 0;
+  for (let i = 0; i < n; i++) spread = Math.max(spread, Math.abs(yc[i]));
+  const ys = pow * spread; // y_c = y - ybar * pow, held as yc * pow = (qty-scaled) * ys
   const qty = new Float64Array(n);
-  for (let i = 0; i < n; i++) qty[i] = y[i] / ys;
+  for (let i = 0; i < n; i++) qty[i] = yc[i] / spread;
   applyQt(qr, qty);
   // coefficients of the preconditioned columns: R beta = (Q'y)_(1..k)
   const beta = new Float64Array(k);
@@ -72,14 +106,13 @@ export function fitLeastSquares(fd: FactoredDesign, y: ArrayLike<number>): Least
   // residuals at rounding level: y is (numerically) a combination of the regressors and d would
   // be computed from rounding noise
   let yy = 0;
-  for (let i = 0; i < n; i++) yy += (y[i] / ys) ** 2;
-  if (!(Math.sqrt(rssScaled) > 1e-12 * Math.sqrt(yy))) {
-    let constant = true;
-    for (let i = 1; i < n; i++) if (y[i] !== y[0]) constant = false;
+  for (let i = 0; i < n; i++) yy += (yc[i] / spread) ** 2;
+  const amplification = Math.sqrt(yy) / Math.sqrt(rssScaled);
+  if (!(designErrorAllowance(fd.condition, amplification) <= D_ROUNDING_LIMIT)) {
+    const zero = rssScaled === 0;
     throw new DwError('RESIDUALS_ZERO',
-      constant ? 'y is constant, so every residual is zero and d is undefined.'
-        : 'y is an exact linear combination of the regressors (the residuals are zero up to rounding), so d is undefined.',
-      constant ? 'Check that the right column was chosen as y.' : 'Check that y (or a copy of it) is not among the regressors.');
+      `y is ${zero ? 'an exact' : 'numerically a'} linear combination of the regressors (the residuals are ${zero ? 'zero' : `${(1 / amplification).toExponential(1)} of the spread of y, within rounding noise`}), so d is ${zero ? 'undefined' : 'not determined to 1e-8'}.`,
+      'Check that y (or a copy or sum of it) is not among the regressors.');
   }
   // (R'R)^-1 = R^-1 R^-T
   const rinv = new Float64Array(k * k); // row-major upper triangular
@@ -115,15 +148,13 @@ export function fitLeastSquares(fd: FactoredDesign, y: ArrayLike<number>): Least
   for (let i = 0; i < k; i++) {
     let b = 0;
     for (let l = 0; l < k; l++) b += t[i * k + l] * beta[l];
-    coefficients.push({ name: names[i], estimate: b * ys, stdError: Math.sqrt(Math.max(0, cov[i * k + i])) });
+    // the mean of y taken out above goes back into the intercept
+    const level = i === interceptIndex ? (ybar * pow) / c0 : 0;
+    coefficients.push({ name: names[i], estimate: b * ys + level, stdError: Math.sqrt(Math.max(0, cov[i * k + i])) });
   }
   for (let i = 0; i < n; i++) resid[i] *= ys;
-  // R^2: 1 - rss / tss (tss about the mean when the model has an intercept)
-  let mean = 0;
-  if (interceptIndex >= 0) for (let i = 0; i < n; i++) mean += y[i] / ys / n;
-  let tss = 0;
-  for (let i = 0; i < n; i++) { const v = y[i] / ys - mean; tss += v * v; }
-  const rSquared = tss > 0 ? 1 - rssScaled / tss : NaN;
+  // R^2: 1 - rss / tss (tss about the mean when the model has an intercept, where yy is it)
+  const rSquared = yy > 0 ? 1 - rssScaled / yy : NaN;
   return {
     coefficients,
     residuals: resid,
@@ -131,5 +162,6 @@ export function fitLeastSquares(fd: FactoredDesign, y: ArrayLike<number>): Least
     sigma2: sigma2Scaled * ys * ys,
     rSquared,
     covariance: cov,
+    amplification,
   };
 }

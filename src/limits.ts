@@ -1,0 +1,129 @@
+/**
+ * Size limits per engine, so that a problem too large for an engine ends in a clear SIZE_LIMIT
+ * error naming the alternative instead of an out-of-memory crash or an hour of computing.
+ *
+ * Costs (METHODS.md sections 2-5), n observations, k columns of X, m = n - k:
+ *   - dense spectrum (spectrum.ts): an n x n matrix A, its congruence Q'AQ and the m x m block,
+ *     about 3 x 8 n^2 bytes, and O(n^3) time (Householder tridiagonalisation);
+ *   - structured spectrum (fast-spectrum.ts, difference operators): O(n k) memory, O(k n^2) time;
+ *   - Imhof's integral on a spectrum: O(m) per integrand evaluation, a few hundred evaluations per
+ *     probability: never the bottleneck, so Imhof's limit is that of the spectrum it needs;
+ *   - Pan's formula: needs the spectrum, and its alternating sum loses accuracy beyond m = 400
+ *     (measured in src/engines/pan.ts);
+ *   - eigen-free Imhof (eigenfree.ts): O(n k) memory, O(n k (k + lag)) per evaluation.
+ *
+ * The limits below were set from timings of one run on this project's development machine (a
+ * shared 2-core container; see docs/errors-and-limits.md): the dense spectrum took 2.4 s at
+ * n = 1000 and 23 s at n = 2000; one eigen-free probability (k = 3) took 0.26 s at n = 10^4, 8.4 s at
+ * n = 10^5 and 66 s at n = 3 x 10^5. A limit is where one answer would take more than about 20 s.
+ */
+import { DwError } from './errors.js';
+import { DENSE_SPECTRUM_MAX_N, FAST_SPECTRUM_MAX_N } from './core/fast-spectrum.js';
+
+/** Largest n for the dense spectrum (O(n^3) time, about 24 n^2 bytes: 96 MB at this size). */
+export { DENSE_SPECTRUM_MAX_N };
+/** Largest n for the structured spectrum of a difference operator (O(k n^2) time, O(n k) memory). */
+export const STRUCTURED_SPECTRUM_MAX_N = FAST_SPECTRUM_MAX_N;
+/** Largest m = n - k for Pan's formula (accuracy of its alternating sum, see src/engines/pan.ts). */
+export const PAN_MAX_M = 400;
+/** Largest n for the eigen-free engine (time: about 8 s per probability at n = 10^5, k = 3). */
+export const EIGENFREE_MAX_N = 100000;
+/** Largest memory any engine may plan to use for one problem (bytes): 1 GiB. */
+export const MEMORY_BUDGET_BYTES = 2 ** 30;
+
+/** Engines the limits speak of; `auto` means "any engine that fits". */
+export type SizedEngine = 'auto' | 'imhof' | 'pan' | 'eigenfree';
+
+/** How the spectrum would be computed for the spectral engines (Imhof, Pan). */
+export interface SizeOptions {
+  /** `dense` (any operator; the default) or `structured` (difference operators, fast-spectrum.ts). */
+  spectrum?: 'dense' | 'structured';
+  /** Bandwidth of the difference operator (the lag; default 1). */
+  bandwidth?: number;
+}
+
+/**
+ * Memory an engine would need for a problem of n observations and k columns (bytes, estimate).
+ *
+ * @example
+ * ```ts
+ * memoryEstimate(1000, 3, 'imhof'); // about 24 MB: three n x n double arrays
+ * ```
+ */
+export function memoryEstimate(n: number, k: number, engine: Exclude<SizedEngine, 'auto'>, options: SizeOptions = {}): number {
+  const spectral = (options.spectrum ?? 'dense') === 'dense' ? 24 * n * n : 8 * n * (3 * k + 8);
+  const bw = options.bandwidth ?? 1;
+  switch (engine) {
+    case 'imhof':
+    case 'pan':
+      return spectral + 8 * n * (k + 4);
+    case 'eigenfree':
+      // complex band factors and the n x k basis and its transforms
+      return 16 * n * (2 * (bw + 1) + 2 * k) + 8 * n * (k + 4);
+  }
+}
+
+/**
+ * Check that an engine can take a problem of n observations and k columns (intercept included).
+ * With `auto`, passes when some engine can; callers then choose the eigen-free engine beyond the
+ * spectral limits.
+ *
+ * @throws DwError N_INVALID or K_INVALID for sizes that are not whole numbers (k < n);
+ *   SIZE_LIMIT naming the engine to use instead, or what to do when none fits
+ * @example
+ * ```ts
+ * checkSize(500, 3, 'imhof');     // fine
+ * checkSize(50000, 3, 'imhof');   // throws SIZE_LIMIT: use --method eigenfree
+ * checkSize(50000, 3, 'auto');    // fine: the eigen-free engine takes it
+ * ```
+ */
+export function checkSize(n: number, k: number, engine: SizedEngine, options: SizeOptions = {}): void {
+  if (!Number.isSafeInteger(n) || n < 1) {
+    throw new DwError('N_INVALID', `The number of observations must be a whole number of at least 1 (got ${n}).`, 'Give n as a positive integer.');
+  }
+  if (!Number.isSafeInteger(k) || k < 0 || k >= n) {
+    throw new DwError('K_INVALID', `The number of columns k must be a whole number from 0 to n - 1 = ${n - 1} (got ${k}).`, 'Count every column of X, the intercept included.');
+  }
+  const spectrumLimit = (options.spectrum ?? 'dense') === 'dense' ? DENSE_SPECTRUM_MAX_N : STRUCTURED_SPECTRUM_MAX_N;
+  const routeName = (options.spectrum ?? 'dense') === 'dense' ? 'the dense spectrum' : 'the structured spectrum';
+  const tooBigForAll = () => new DwError('SIZE_LIMIT',
+    `n = ${n} observations is beyond every engine: the largest is n = ${EIGENFREE_MAX_N} (eigen-free engine, about 8 s per probability there, growing in proportion to n).`,
+    'Test a shorter span of the series, or aggregate it (for example daily to weekly); the Durbin-Watson test on a series this long is in any case close to its normal approximation.');
+  const memory = (e: Exclude<SizedEngine, 'auto'>) => {
+    const bytes = memoryEstimate(n, k, e, options);
+    if (bytes > MEMORY_BUDGET_BYTES) {
+      throw new DwError('SIZE_LIMIT',
+        `The ${e} engine would need about ${(bytes / 2 ** 20).toFixed(0)} MiB for n = ${n}, k = ${k} (budget ${MEMORY_BUDGET_BYTES / 2 ** 20} MiB).`,
+        e === 'eigenfree' ? 'Use fewer regressors or fewer observations.' : 'Use --method eigenfree, which needs O(n k) memory.');
+    }
+  };
+  switch (engine) {
+    case 'imhof':
+      if (n > spectrumLimit) {
+        throw new DwError('SIZE_LIMIT',
+          `The Imhof engine needs the spectrum, and ${routeName} is limited to n = ${spectrumLimit} (n = ${n} here).`,
+          n <= EIGENFREE_MAX_N ? 'Use --method eigenfree (or auto), which needs no spectrum.' : tooBigForAll().hint);
+      }
+      memory('imhof');
+      return;
+    case 'pan':
+      if (n - k > PAN_MAX_M) {
+        throw new DwError('SIZE_LIMIT',
+          `Pan's formula is limited to m = n - k = ${PAN_MAX_M} (m = ${n - k} here): beyond it its alternating sum loses accuracy.`,
+          n <= spectrumLimit ? 'Use --method imhof (or auto).' : 'Use --method eigenfree (or auto).');
+      }
+      memory('pan');
+      return;
+    case 'eigenfree':
+      if (n > EIGENFREE_MAX_N) throw tooBigForAll();
+      memory('eigenfree');
+      return;
+    case 'auto':
+      if (n <= spectrumLimit && memoryEstimate(n, k, 'imhof', options) <= MEMORY_BUDGET_BYTES) return;
+      if (n > EIGENFREE_MAX_N) throw tooBigForAll();
+      memory('eigenfree');
+      return;
+    default:
+      throw new DwError('OPTION_VALUE', `Unknown engine '${String(engine)}'.`, 'Use auto, imhof, pan or eigenfree.');
+  }
+}
