@@ -56,7 +56,7 @@ const DEFAULT_TOLERANCE = 1e-12;
  * Two eigenvalues on the integrated side closer than this fraction of the spread nu_m - nu_1
  * count as tied. At a tie the formula itself breaks down (a non-integrable singularity, or an
  * interval of zero length between two that diverge); where three or more values crowd within a
- * gap g the terms grow like spread / g and cancel, so rounding costs a factor spread / g, 1e6 at
+ * gap g the terms grow like spread / g and cancel, so rounding costs a factor spread / g, up to 1e6 at
  * this threshold (and the a-posteriori bound refuses what is left). Values tied in exact
  * arithmetic leave an eigen-solver about 1e-15 of the spread apart, far below the line; untied
  * spectra of the Durbin-Watson kind have relative gaps of about 7 / n^2 (8e-5 at n = 300), far
@@ -86,8 +86,8 @@ const CHEB_MIN_DISTANCE = 0.25;
 /** Ratio of consecutive breakpoints of graded panels. */
 const GRADING = 3;
 
-const TWO_256 = 1.157920892373162e77; // 2^256
-const TWO_M256 = 8.636168555094445e-78; // 2^-256
+const TWO_256 = 2 ** 256;
+const TWO_M256 = 2 ** -256;
 
 /** Gauss-Legendre rule on [-1, 1], nonnegative half: nodes x_j >= 0 and their weights. */
 interface GaussRule {
@@ -437,10 +437,12 @@ function formsAt(nu: Float64Array, c: number, tolerance: number): [Form, Form] {
   const make = (tail: Tail, x: Float64Array, cc: number, count: number): Form => {
     let refusal = tieReason(x, count, tail === 'upper');
     if (!refusal) {
+      // the final bound adds the quadrature estimates (at most about the rounding part again) to
+      // the rounding: a margin of 4 keeps 'applicable' from turning into a refusal afterwards
       const predicted = predictLower(x, cc);
-      if (predicted > tolerance) {
+      if (4 * predicted > tolerance) {
         refusal = `at c = ${c} with m = ${m} the ${tail === 'lower' ? 'lower' : 'mirror'} form's alternating sum cancels ` +
-          `too much (predicted rounding error ${predicted.toExponential(1)} > ${tolerance})`;
+          `too much (predicted rounding error ${predicted.toExponential(1)}, tolerance ${tolerance})`;
       }
     }
     return { tail, x, c: cc, terms: Math.ceil(count / 2), refusal };
@@ -461,7 +463,8 @@ function formsAt(nu: Float64Array, c: number, tolerance: number): [Form, Form] {
  * - without `c`: m > 24. In the middle of the support the terms of the alternating sum grow
  *   roughly like exp(0.27 m) and cancel; up to m = 24 the rounding stays below about 2e-13 for
  *   every c. With `c`: the rounding bound predicted from a 4-node estimate of each term exceeds
- *   1e-12 for both forms. Tails stay accurate for m in the hundreds.
+ *   1e-12 / 4 for both forms (the margin covers the quadrature part of the final bound). Tails
+ *   stay accurate for m in the hundreds.
  *
  * @example
  * ```ts
@@ -474,6 +477,7 @@ export function panApplicable(nu: Float64Array, c?: number): { ok: boolean; reas
   const bad = malformed(nu);
   if (bad) return { ok: false, reason: bad };
   const m = nu.length;
+  if (nu[0] === nu[m - 1]) return { ok: false, reason: tieReason(nu, m, false) ?? 'all eigenvalues are equal' };
   if (c === undefined) {
     const tie = tieReason(nu, m, false);
     if (tie) return { ok: false, reason: tie };
@@ -535,7 +539,7 @@ function complementOf(form: Form): TailProbability {
  * @example
  * ```ts
  * // m = 2, the arcsine law: P(d <= 1.5) = (2/pi) asin(sqrt(0.5)) = 0.5
- * panTail(Float64Array.of(1, 2), 1.5, 'lower').p; // 0.5
+ * panTail(Float64Array.of(1, 2), 1.5, 'lower').p; // 0.5 (to 1e-15)
  * // Durbin-Watson lower bound, n = 10, k' = 1: nu_i = 2 - 2 cos(pi i / 10), i = 1..8
  * const nu = Float64Array.from({ length: 8 }, (_, j) => 2 - 2 * Math.cos((Math.PI * (j + 1)) / 10));
  * panTail(nu, 0.879, 'lower').p; // 0.04997 (Savin & White 1977 tabulate d_L = 0.879 at 5%)
@@ -556,6 +560,8 @@ export function panTail(nu: Float64Array, c: number, tail: Tail, options: PanOpt
     throw new DwError('OPTION_VALUE', `The tolerance must be a positive number (got ${tolerance}).`, 'Use for example 1e-12.');
   }
   const m = nu.length;
+  // d is constant when every eigenvalue is the same: not a case for Pan (nor a continuous law)
+  if (nu[0] === nu[m - 1]) throw notApplicable(tieReason(nu, m, false) ?? 'all eigenvalues are equal');
   if (c <= nu[0]) return { p: tail === 'lower' ? 0 : 1, errorBound: 0, relativeError: 0, method: 'pan' };
   if (c >= nu[m - 1]) return { p: tail === 'lower' ? 1 : 0, errorBound: 0, relativeError: 0, method: 'pan' };
 
