@@ -23,5 +23,19 @@ export {
   exactDwTest, exactDwPValue, exactDwCritical, pValuesFor,
   type DwTestInput, type DwTestResult, type DwPValues, type Alternative, type BoundsZone, type PowerSummary, type DynamicModelCheck,
 } from './inference/dw-test.js';
-export { renderText } from './report/text.js';
+export * from './report/index.js';
 export { VERSION } from './version.js';
+export { exactPower, powerForProblem, alternativeTail, POWER_SIZE_LIMIT, type ExactPower, type ExactPowerInput, type PowerOptions, type PowerPoint } from './power/exact-power.js';
+export { powerWeights, errorCovariance, type ErrorProcess } from './power/weights.js';
+export { detectLaggedDependent } from './dynamic/lagged-dependent.js';
+export {
+  dynamicModelCheck, serialCorrelationTests, durbinH, breuschGodfrey, residualT,
+  type DynamicDiagnosis, type DurbinH, type BreuschGodfrey, type ResidualT,
+} from './dynamic/serial-tests.js';
+export { normalCdf, normalSf, chiSquareSf, fSf, studentTSf } from './dynamic/tails.js';
+export { contourTail } from './engines/saddle-contour.js';
+export { panTail, panApplicable, type PanOptions } from './engines/pan.js';
+export { eigenfreeForm, type EigenfreeForm } from './engines/eigenfree.js';
+export { fastSpectrum } from './core/fast-spectrum.js';
+export { checkSize, memoryEstimate } from './limits.js';
+export * from './bounds/index.js';

@@ -56,7 +56,7 @@ export class DwNullDistribution {
   /** Exact variance of d. */
   get variance(): number { return this.source.variance(); }
 
-  /** [nu_1, nu_m]: d lies in this interval with probability one. */
+  /** The interval from nu_1 to nu_m (or, before the spectrum is known, a Gershgorin interval containing it): d lies in it with probability one. */
   get support(): [number, number] { return this.source.support(); }
 
   /**
@@ -109,6 +109,8 @@ export class DwNullDistribution {
     const [lo, hi] = this.support;
     if (p === 0) return lo;
     if (p === 1) return hi;
+    // above the median solve on the upper tail, which keeps relative accuracy as p -> 1
+    if (p > 0.5) return brentRoot((c) => p - 1 + this.sf(c), lo, hi, 1e-12 * Math.max(1, hi - lo));
     return brentRoot((c) => this.cdf(c) - p, lo, hi, 1e-12 * Math.max(1, hi - lo));
   }
 
@@ -118,6 +120,7 @@ export class DwNullDistribution {
     const [lo, hi] = this.support;
     if (p === 0) return hi;
     if (p === 1) return lo;
+    if (p > 0.5) return brentRoot((c) => 1 - p - this.cdf(c), lo, hi, 1e-12 * Math.max(1, hi - lo));
     return brentRoot((c) => this.sf(c) - p, lo, hi, 1e-12 * Math.max(1, hi - lo));
   }
 }

@@ -9,6 +9,11 @@ import type { EngineName, MethodChoice } from '../core/types.js';
 import { fitLeastSquares, type Coefficient } from '../model/ols.js';
 import { designErrorAllowance, type RegressorInput } from '../model/design.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from './problem.js';
+import { dynamicModelCheck } from '../dynamic/serial-tests.js';
+import { boundsZone } from '../bounds/zone.js';
+import { MAX_BOUNDS_N } from '../bounds/spectra.js';
+import { powerForProblem } from '../power/exact-power.js';
+import type { ErrorProcess } from '../power/weights.js';
 
 /** The alternative hypothesis: positive or negative first-order autocorrelation, or either. */
 export type Alternative = 'positive' | 'negative' | 'two-sided';
@@ -25,6 +30,15 @@ export interface DwTestInput extends ProblemOptions {
   alternative?: Alternative;
   /** Significance level (default 0.05). */
   alpha?: number;
+  /**
+   * The regressor that is y lagged one period (then d is not valid and `dynamic` holds Durbin's h
+   * and the Breusch-Godfrey test). Detected from the data when omitted; `false` turns detection off.
+   */
+  laggedDependent?: string | false;
+  /** Order of the Breusch-Godfrey test reported when the model is dynamic (default 1). */
+  bgOrder?: number;
+  /** Exact power of this test against AR(1) errors at these rho (and the rho reaching `target`, default 0.8). */
+  power?: { rho: ArrayLike<number>; target?: number; process?: ErrorProcess };
 }
 
 /** Exact p-values of an observed d. */
@@ -275,6 +289,22 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
   if (design.interceptIndex < 0) {
     warnings.push('The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.');
   }
+  const gaps = problem.pairs.from.length < n - problem.pairs.lag;
+  if (problem.pairs.lag > 1 || gaps) {
+    warnings.push(`The classical bounds tables (d_L, d_U) are for lag 1 and consecutive observations; ${problem.pairs.lag > 1 ? `at lag ${problem.pairs.lag}` : 'with gaps in time'} they do not apply; the exact p-value does.`);
+  }
+  let dynamic: DynamicModelCheck | null = null;
+  if (input.y !== undefined) {
+    const check = dynamicModelCheck({
+      y: input.y, x: input.x, intercept: input.intercept, names: input.names, times: input.times,
+      laggedDependent: input.laggedDependent, order: input.bgOrder, alternative,
+    });
+    if (check) { dynamic = check; warnings.push(check.message, ...check.notes); }
+  } else if (typeof input.laggedDependent === 'string') {
+    throw new DwError('OPTION_CONFLICT', "Durbin's h and the Breusch-Godfrey test refit the model, so they need y, not residuals.",
+      'Pass y (and the regressors) instead of the residuals.');
+  }
+  const boundsApply = design.interceptIndex >= 0 && problem.pairs.lag === 1 && !gaps && n <= MAX_BOUNDS_N && n - design.k >= 2;
   return {
     ...p,
     m: n - design.k,
@@ -291,10 +321,10 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
     decision: pValue <= alpha ? 'reject' : 'not-rejected',
     nullMean: dist.mean,
     nullVariance: dist.variance,
-    bounds: null,
-    power: null,
-    dynamic: null,
-    gaps: problem.pairs.from.length < n - problem.pairs.lag,
+    bounds: boundsApply && !dynamic ? boundsZone(d, n, design.k - 1, alpha, alternative, pValue) : null,
+    power: input.power ? powerForProblem(problem, { ...input.power, alpha, alternative, times: input.times }) : null,
+    dynamic,
+    gaps,
     warnings,
   };
 }

@@ -3,11 +3,19 @@ import type { Command } from './command.js';
 import { testCommand } from './test.js';
 import { pvalueCommand } from './pvalue.js';
 import { criticalCommand } from './critical.js';
+import { powerCommand } from './power.js';
+import { diagnoseCommand } from './diagnose.js';
+import { boundsCommand } from './bounds.js';
+import { tableCommand } from './table.js';
 import { demoCommand } from './demo.js';
 
 export const COMMANDS: Command[] = [
   testCommand,
   pvalueCommand,
   criticalCommand,
+  powerCommand,
+  diagnoseCommand,
+  boundsCommand,
+  tableCommand,
   demoCommand,
 ];

@@ -1,39 +1,174 @@
-/** `exact-dw test`: fit y on the regressors of a data file and test the residuals exactly. */
+/**
+ * `exact-dw test`: fit y on the regressors of a data file, test the residuals exactly, and write
+ * the report (text, Markdown, LaTeX or JSON), the paragraph for the paper, the BibTeX of the
+ * methods used and the figure of the exact null density. Files are never overwritten without
+ * --force, and every output is rendered before the first file is written, so that an error leaves
+ * no half-written set behind.
+ */
+import { resolve } from 'node:path';
 import { DwError } from '../../errors.js';
 import { numericColumn } from '../../data/csv.js';
-import { exactDwTest, type Alternative } from '../../inference/dw-test.js';
+import { exactDwTest, type Alternative, type DwTestResult } from '../../inference/dw-test.js';
+import { prepareProblem, type ProblemOptions } from '../../inference/problem.js';
+import type { RegressorInput } from '../../model/design.js';
 import { renderText } from '../../report/text.js';
-import { choiceOption, numberOption, required } from '../args.js';
+import { renderMarkdown } from '../../report/markdown.js';
+import { renderLatex } from '../../report/latex.js';
+import { renderJson } from '../../report/json.js';
+import { paperParagraph } from '../../report/paragraph.js';
+import { citations } from '../../report/citations.js';
+import { renderDensitySvg } from '../../report/svg.js';
+import { choiceOption, integerOption, numberOption, required, type OptionSpecs, type OptionValues } from '../args.js';
+import type { CliIo } from '../io.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, chooseRegressors, loadTable, problemOptions } from '../shared.js';
 import type { Command } from './command.js';
+import { parseRhoList } from './power.js';
+
+/** Report formats. */
+export const REPORT_FORMATS = ['text', 'markdown', 'latex', 'json'] as const;
+export type ReportFormat = (typeof REPORT_FORMATS)[number];
+
+/** Options that say what to write and where (shared with `demo`). */
+export const REPORT_OPTIONS: OptionSpecs = {
+  format: { type: 'string', value: 'FMT', help: 'report format: text (default), markdown, latex or json' },
+  paragraph: { type: 'boolean', help: 'print only the paragraph for the paper, in the chosen format' },
+  cite: { type: 'boolean', help: 'append BibTeX entries for the methods used' },
+  bib: { type: 'string', value: 'FILE', help: 'also write the BibTeX entries to FILE' },
+  plot: { type: 'string', value: 'FILE.svg', help: 'also write an SVG figure of the exact null density of d' },
+  out: { type: 'string', value: 'FILE', help: 'write the report to FILE instead of the screen' },
+  force: { type: 'boolean', help: 'replace files given to --out, --plot or --bib that already exist' },
+};
+
+/** The report in one format. */
+export function renderReport(result: DwTestResult, format: ReportFormat): string {
+  switch (format) {
+    case 'markdown': return renderMarkdown(result);
+    case 'latex': return renderLatex(result);
+    case 'json': return renderJson(result);
+    default: return renderText(result);
+  }
+}
+
+/** What goes to the screen or to --out: the report or the paragraph, with BibTeX appended on --cite. */
+export function mainOutput(result: DwTestResult, format: ReportFormat, paragraph: boolean, cite: boolean): string {
+  const bib = cite ? citations(result) : '';
+  if (format === 'json') {
+    const obj = paragraph ? { paragraph: paperParagraph(result, 'text').trim() } : JSON.parse(renderJson(result));
+    if (cite) obj.bibtex = bib;
+    return JSON.stringify(obj, null, 2) + '\n';
+  }
+  const body = paragraph ? paperParagraph(result, format) : renderReport(result, format);
+  if (!cite) return body;
+  if (format === 'markdown') return `${body}\n\`\`\`bibtex\n${bib}\`\`\`\n`;
+  if (format === 'latex') return `${body}\n% ---- BibTeX entries for the methods used (save them as a .bib file) ----\n${bib}`;
+  return `${body}\n---- BibTeX entries for the methods used ----\n\n${bib}`;
+}
+
+/** The files a run will write, checked before any work is done. */
+export interface OutputFiles { out?: string; plot?: string; bib?: string; force: boolean }
+
+/** Read --out, --plot, --bib and --force; refuse existing files (without --force), clashes, and a figure not named .svg. */
+export function outputFiles(values: OptionValues, io: CliIo): OutputFiles {
+  const pick = (name: string): string | undefined => {
+    const v = values[name];
+    if (v === undefined) return undefined;
+    if (typeof v !== 'string' || v.trim() === '') throw new DwError('OPTION_VALUE', `--${name} needs a file name.`, `Write it like --${name} results/report.md.`);
+    return v;
+  };
+  const files: OutputFiles = { out: pick('out'), plot: pick('plot'), bib: pick('bib'), force: values.force === true };
+  if (files.plot !== undefined && !/\.svg$/i.test(files.plot)) {
+    throw new DwError('OPTION_VALUE', `--plot writes an SVG figure, but '${files.plot}' does not end in .svg.`, 'Give a file name ending in .svg (convert it to PDF or PNG with your usual tools).');
+  }
+  const named = (['out', 'plot', 'bib'] as const).filter((k) => files[k] !== undefined);
+  for (let i = 0; i < named.length; i++) {
+    for (let j = i + 1; j < named.length; j++) {
+      if (resolve(files[named[i]]!) === resolve(files[named[j]]!)) {
+        throw new DwError('OPTION_CONFLICT', `--${named[i]} and --${named[j]} name the same file '${files[named[i]]}'.`, 'Give each output its own file.');
+      }
+    }
+  }
+  if (!files.force) {
+    for (const k of named) {
+      const path = files[k]!;
+      if (io.exists(path)) {
+        throw new DwError('FILE_EXISTS', `The file '${path}' (--${k}) already exists and was left as it is.`, 'Choose another name, or add --force to replace it.', { file: path });
+      }
+    }
+  }
+  return files;
+}
+
+/**
+ * Render everything asked for, then write it: the report (or paragraph) to --out or the screen,
+ * the figure to --plot, the BibTeX to --bib. A note on stderr names each file written.
+ */
+export function writeOutputs(io: CliIo, result: DwTestResult, values: OptionValues, files: OutputFiles, problem: () => ReturnType<typeof prepareProblem>): void {
+  const format = choiceOption<ReportFormat>(values, 'format', REPORT_FORMATS, 'text');
+  const main = mainOutput(result, format, values.paragraph === true, values.cite === true);
+  const svg = files.plot !== undefined ? renderDensitySvg(result, problem().distribution) : undefined;
+  const bib = files.bib !== undefined ? citations(result) : undefined;
+  if (files.out !== undefined) {
+    io.writeText(files.out, main, files.force);
+    io.err(`exact-dw: wrote ${values.paragraph === true ? 'the paragraph' : 'the report'} to ${files.out}\n`);
+  } else {
+    io.out(main);
+  }
+  if (svg !== undefined) {
+    io.writeText(files.plot!, svg, files.force);
+    io.err(`exact-dw: wrote the figure to ${files.plot}\n`);
+  }
+  if (bib !== undefined) {
+    io.writeText(files.bib!, bib, files.force);
+    io.err(`exact-dw: wrote the BibTeX entries to ${files.bib}\n`);
+  }
+}
 
 export const testCommand: Command = {
   name: 'test',
   summary: 'fit y on its regressors and run the exact Durbin-Watson test',
-  usage: 'exact-dw test DATA.csv --y COL [--x A,B,...] [options]',
+  usage: 'exact-dw test DATA.csv --y COL [--x A,B,...] [--format FMT] [--paragraph] [--cite] [--plot FILE.svg] [--out FILE] [options]',
+  details: [
+    'Prints a report of the exact test: the decision, d, its exact p-values and critical values for',
+    'your design, the bounds test, the fit, the method and its error bound, and cautions.',
+    '--paragraph prints a paragraph for a paper instead; --cite adds BibTeX for the methods used;',
+    '--plot writes a figure of the exact null density of d. Existing files are never replaced',
+    'unless you add --force.',
+  ].join('\n'),
   positionals: 1,
   options: {
     y: { type: 'string', value: 'COL', help: 'the dependent variable' },
     x: { type: 'string', value: 'A,B,...', help: 'regressors (default: every other numeric column)' },
     alternative: { type: 'string', value: 'ALT', help: 'positive (default), negative or two-sided' },
     alpha: { type: 'string', value: 'A', help: 'significance level in (0, 1) (default 0.05)' },
+    power: { type: 'string', value: 'RHOS', help: 'also report the exact power against AR(1) errors at these rho (e.g. 0.2,0.4,0.6 or 0.1:0.9:0.1)' },
+    target: { type: 'string', value: 'P', help: 'with --power: report the smallest rho whose power reaches P (default 0.8)' },
+    'lagged-dependent': { type: 'string', value: 'COL', help: "the regressor that is y lagged one period (detected when omitted); d is then not valid and Durbin's h and Breusch-Godfrey are reported" },
+    'bg-order': { type: 'string', value: 'P', help: 'order of the Breusch-Godfrey test for a dynamic model (default 1)' },
     ...MODEL_OPTIONS,
     ...CSV_OPTIONS,
-    format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+    ...REPORT_OPTIONS,
   },
   run({ values, positionals, io }) {
-    const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');
+    choiceOption<ReportFormat>(values, 'format', REPORT_FORMATS, 'text');
     if (positionals.length !== 1) {
       throw new DwError('OPTION_MISSING', "'test' needs the data file: exact-dw test DATA.csv --y COL.", "See 'exact-dw test --help'.");
     }
+    const files = outputFiles(values, io);
     const alternative = choiceOption<Alternative>(values, 'alternative', ['positive', 'negative', 'two-sided'], 'positive');
     const alpha = numberOption(values, 'alpha', 0.05) as number;
     const table = loadTable(io, positionals[0], values);
     const yName = required(values, 'y', 'test');
     const y = numericColumn(table, yName);
-    const x = chooseRegressors(table, values, yName);
-    const result = exactDwTest({ y, x, alternative, alpha, ...problemOptions(values, table) });
-    io.out(format === 'json' ? JSON.stringify(result, null, 2) + '\n' : renderText(result));
+    const x: RegressorInput = chooseRegressors(table, values, yName);
+    const options: ProblemOptions = problemOptions(values, table);
+    const laggedDependent = typeof values['lagged-dependent'] === 'string' ? values['lagged-dependent'] : undefined;
+    const bgOrder = integerOption(values, 'bg-order', 1);
+    const power = typeof values.power === 'string'
+      ? { rho: parseRhoList(values.power), target: numberOption(values, 'target', 0.8) as number }
+      : undefined;
+    const result = exactDwTest({ y, x, alternative, alpha, ...options, laggedDependent, bgOrder, power });
+    // the figure needs the null distribution itself: rebuild it from the same design and options
+    writeOutputs(io, result, values, files, () => prepareProblem(x, y.length, options));
     return 0;
   },
 };

@@ -1,0 +1,177 @@
+/**
+ * Where the classical bounds test (Durbin & Watson 1950, 1951) would have landed for an observed d,
+ * and how the exact p-value for the caller's own design resolves it. Zones on [0, 4]:
+ *
+ *   reject-positive  d < d_L  |  inconclusive-positive  d_L <= d <= d_U  |  no-evidence  d_U < d < 4 - d_U
+ *   |  inconclusive-negative  4 - d_U <= d <= 4 - d_L  |  reject-negative  d > 4 - d_L
+ *
+ * The negative side mirrors the positive one because the bounding distributions of 4 - d are those
+ * of d (the spectrum of A is symmetric about 2). When d_U > 2 (many regressors, few observations)
+ * the two inconclusive zones overlap; d <= 2 is then read on the positive side, d > 2 on the
+ * negative side. A two-sided test at level alpha uses the bounds at alpha / 2 in each tail.
+ */
+import { DwError } from '../errors.js';
+import type { MethodChoice } from '../core/types.js';
+import type { Alternative, BoundsZone } from '../inference/dw-test.js';
+import { bounds, checkBoundsAlpha } from './bounds.js';
+
+/** Options of {@link boundsZone}. */
+export interface BoundsZoneOptions {
+  /** Bounds of a model with an intercept (default true; the printed tables' case). */
+  intercept?: boolean;
+  /** Engine for the bounds (default `auto`). */
+  method?: MethodChoice;
+  /** Bounds already computed at the level `alpha` (or `alpha / 2` two-sided), to skip the computation. */
+  known?: { dL: number; dU: number };
+}
+
+/**
+ * The bounds-test zone of d for n observations and k' regressors other than the intercept, with a
+ * plain-words resolution. `exactP` is the exact p-value of d for the caller's design under the same
+ * alternative (P(D <= d) for `positive`, P(D >= d) for `negative`, the two-sided p-value for
+ * `two-sided`); pass null when it is not known.
+ *
+ * @example
+ * ```ts
+ * boundsZone(1.31, 20, 1, 0.05, 'positive', 0.039).resolution;
+ * // "The bounds test at 5% (one-sided, against positive autocorrelation) is inconclusive:
+ * //  d_L = 1.201 <= d = 1.310 <= d_U = 1.411; the exact p-value for this design, 0.039, rejects at 5%."
+ * ```
+ */
+export function boundsZone(
+  d: number,
+  n: number,
+  kPrime: number,
+  alpha: number,
+  alternative: Alternative = 'positive',
+  exactP: number | null = null,
+  options: BoundsZoneOptions = {},
+): BoundsZone {
+  if (!(typeof d === 'number' && Number.isFinite(d) && d >= 0 && d <= 4)) {
+    throw new DwError('D_OUT_OF_RANGE', `d = ${d} is outside the possible range [0, 4].`, 'Give the Durbin-Watson statistic of your regression.', { value: String(d) });
+  }
+  if (!['positive', 'negative', 'two-sided'].includes(alternative)) {
+    throw new DwError('OPTION_VALUE', `Unknown alternative '${alternative}'.`, 'Use positive, negative or two-sided.');
+  }
+  checkBoundsAlpha(alpha);
+  if (exactP !== null && !(typeof exactP === 'number' && exactP >= 0 && exactP <= 1)) {
+    throw new DwError('PROBABILITY_OUT_OF_RANGE', `The exact p-value ${exactP} is outside [0, 1].`, 'Pass the p-value of the exact test, or null.', { value: String(exactP) });
+  }
+  const level = alternative === 'two-sided' ? alpha / 2 : alpha;
+  const intercept = options.intercept ?? true;
+  const { dL, dU } = options.known ?? bounds(n, kPrime, level, { intercept, method: options.method });
+  const zone = zoneOf(d, dL, dU);
+  return { kPrime, level, dL, dU, zone, resolution: resolve(d, dL, dU, zone, alpha, alternative, exactP, intercept) };
+}
+
+/**
+ * The zone of d for bounds dL <= dU (d <= 2 read on the positive side when the zones overlap).
+ *
+ * @example
+ * ```ts
+ * zoneOf(1.3, 1.201, 1.411); // 'inconclusive-positive'
+ * zoneOf(2.9, 1.201, 1.411); // 'reject-negative'
+ * ```
+ */
+export function zoneOf(d: number, dL: number, dU: number): BoundsZone['zone'] {
+  if (d <= 2) {
+    if (d < dL) return 'reject-positive';
+    if (d <= dU) return 'inconclusive-positive';
+    return 'no-evidence';
+  }
+  if (d > 4 - dL) return 'reject-negative';
+  if (d >= 4 - dU) return 'inconclusive-negative';
+  return 'no-evidence';
+}
+
+function resolve(d: number, dL: number, dU: number, zone: BoundsZone['zone'], alpha: number, alt: Alternative, p: number | null, intercept: boolean): string {
+  const [fd, fL, fU, fL4, fU4] = distinct([d, dL, dU, 4 - dL, 4 - dU]);
+  const at = alt === 'two-sided'
+    ? `at ${pct(alpha)} (two-sided, bounds at ${pct(alpha / 2)} in each tail)`
+    : `at ${pct(alpha)} (one-sided, against ${alt} autocorrelation)`;
+  const model = intercept ? '' : ' for a model without intercept';
+  const exactP = p === null ? '' : `the exact ${alt === 'two-sided' ? 'two-sided ' : ''}p-value for this design, ${formatPValue(p, alpha)}`;
+  const inconclusiveHere = (zone === 'inconclusive-positive' && alt !== 'negative') || (zone === 'inconclusive-negative' && alt !== 'positive');
+  if (inconclusiveHere) {
+    const range = zone === 'inconclusive-positive'
+      ? `d_L = ${fL} <= d = ${fd} <= d_U = ${fU}`
+      : `4 - d_U = ${fU4} <= d = ${fd} <= 4 - d_L = ${fL4}`;
+    const head = `The bounds test${model} ${at} is inconclusive: ${range}`;
+    return p === null
+      ? `${head}; only the exact distribution of d for this design decides: compute the exact p-value for your regressors.`
+      : `${head}; ${exactP}, ${p <= alpha ? 'rejects' : 'does not reject'} at ${pct(alpha)}.`;
+  }
+  // the bounds decide: say how, then give the exact p-value beside it
+  let verdict: string;
+  let rejects: boolean;
+  if ((zone === 'reject-positive' && alt !== 'negative') || (zone === 'reject-negative' && alt !== 'positive')) {
+    rejects = true;
+    const side = zone === 'reject-positive' ? `d = ${fd} < d_L = ${fL}` : `d = ${fd} > 4 - d_L = ${fL4}`;
+    const dir = zone === 'reject-positive' ? 'positive' : 'negative';
+    verdict = `${side}: the bounds test${model} rejects no autocorrelation in favour of ${dir} autocorrelation ${at}, whatever the regressors`;
+  } else {
+    rejects = false;
+    if (alt === 'positive') {
+      verdict = `d = ${fd} > d_U = ${fU}: the bounds test${model} finds no evidence of positive autocorrelation ${at}, whatever the regressors`;
+      if (zone === 'inconclusive-negative') verdict += ` (d lies in the zone 4 - d_U = ${fU4} <= d <= 4 - d_L = ${fL4}, where a test against negative autocorrelation would be inconclusive)`;
+      if (zone === 'reject-negative') verdict += ` (d lies beyond 4 - d_L = ${fL4}, where a test against negative autocorrelation would reject)`;
+    } else if (alt === 'negative') {
+      verdict = `d = ${fd} < 4 - d_U = ${fU4}: the bounds test${model} finds no evidence of negative autocorrelation ${at}, whatever the regressors`;
+      if (zone === 'inconclusive-positive') verdict += ` (d lies in the zone d_L = ${fL} <= d <= d_U = ${fU}, where a test against positive autocorrelation would be inconclusive)`;
+      if (zone === 'reject-positive') verdict += ` (d lies below d_L = ${fL}, where a test against positive autocorrelation would reject)`;
+    } else {
+      verdict = `d_U = ${fU} < d = ${fd} < 4 - d_U = ${fU4}: the bounds test${model} finds no evidence of autocorrelation in either direction ${at}, whatever the regressors`;
+    }
+  }
+  if (p === null) return `${verdict}.`;
+  return (p <= alpha) === rejects
+    ? `${verdict}; ${exactP}, agrees.`
+    : `${verdict}; but ${exactP}, ${p <= alpha ? 'rejects' : 'does not reject'} at ${pct(alpha)}: the bounds hold only for lag 1 with an intercept and no gaps in time, so report the exact p-value.`;
+}
+
+/**
+ * A level as a percentage.
+ *
+ * @example
+ * ```ts
+ * pct(0.05);  // "5%"
+ * pct(0.025); // "2.5%"
+ * ```
+ */
+export function pct(a: number): string {
+  return `${Number((a * 100).toPrecision(6))}%`;
+}
+
+/**
+ * A p-value with as few significant digits (2 to 6) as keep its comparison with alpha visible:
+ * 0.0501 is never shown as "0.050" beside "does not reject at 5%".
+ *
+ * @example
+ * ```ts
+ * formatPValue(0.039, 0.05);  // "0.039"
+ * formatPValue(0.0501, 0.05); // "0.0501"
+ * ```
+ */
+export function formatPValue(p: number, alpha: number): string {
+  if (p === 0) return '0';
+  if (p < 1e-4) return p.toExponential(1);
+  for (let digits = 2; digits <= 6; digits++) {
+    const s = p.toPrecision(digits);
+    const r = Number(s);
+    if ((r <= alpha) === (p <= alpha) && (r !== alpha || p === alpha)) return String(r);
+  }
+  return String(Number(p.toPrecision(6)));
+}
+
+/** Numbers with 3 decimals, or more (up to 6) when two of them would otherwise print the same. */
+function distinct(xs: number[]): string[] {
+  for (let dec = 3; dec <= 6; dec++) {
+    const s = xs.map((x) => x.toFixed(dec));
+    let clash = false;
+    for (let i = 0; i < xs.length && !clash; i++) {
+      for (let j = i + 1; j < xs.length; j++) if (xs[i] !== xs[j] && s[i] === s[j]) { clash = true; break; }
+    }
+    if (!clash) return s;
+  }
+  return xs.map((x) => x.toFixed(6));
+}

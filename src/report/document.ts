@@ -1,0 +1,383 @@
+/**
+ * The content of a report, independent of its format: sections of paragraphs, labelled values,
+ * tables and lists, written in the neutral markup of format.ts. Every renderer (text, Markdown,
+ * LaTeX) prints this one document, so the formats cannot disagree about a number or a sentence.
+ * Nothing here computes a statistic: every number comes from the DwTestResult.
+ */
+import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
+import { VERSION } from '../version.js';
+import { dIsValid } from './citations.js';
+import { andList, bound, cite, code, dFormula, estimate, fixed, level, plain, probability, prose, sym } from './format.js';
+
+/** A paragraph. */
+export interface ParagraphBlock { kind: 'para'; text: string }
+/** Labelled values, one per row. */
+export interface FieldsBlock { kind: 'fields'; rows: [label: string, value: string][] }
+/** A table with a header row. */
+export interface TableBlock { kind: 'table'; head: string[]; align: ('l' | 'r')[]; rows: string[][] }
+/** A bulleted list. */
+export interface ListBlock { kind: 'list'; items: string[] }
+/** The reference list: works by BibTeX key, in order of first citation. */
+export interface ReferencesBlock { kind: 'references'; keys: string[] }
+export type ReportBlock = ParagraphBlock | FieldsBlock | TableBlock | ListBlock | ReferencesBlock;
+
+/** One section of a report. */
+export interface ReportSection {
+  /** Stable identifier (used for anchors and by the tests). */
+  id: string;
+  heading: string;
+  blocks: ReportBlock[];
+}
+
+/** A whole report in neutral markup. */
+export interface ReportDocument {
+  title: string;
+  /** "exact-dw 0.1.0" */
+  producer: string;
+  sections: ReportSection[];
+}
+
+/** Decimals of d, critical values and bounds in the reports. */
+export const D_DECIMALS = 4;
+
+const para = (text: string): ParagraphBlock => ({ kind: 'para', text });
+
+/** "first-order autocorrelation" or "autocorrelation at lag 4". */
+export function nullWords(r: DwTestResult): string {
+  return r.lag > 1 ? `autocorrelation at lag ${r.lag}` : 'first-order autocorrelation';
+}
+
+/** The alternative in words. */
+export function alternativeWords(r: DwTestResult): string {
+  if (r.alternative === 'positive') return 'positive autocorrelation';
+  if (r.alternative === 'negative') return 'negative autocorrelation';
+  return 'autocorrelation of either sign';
+}
+
+/** The rejection region of the chosen alternative, e.g. "d <= 1.2046". */
+export function rejectionRegion(r: DwTestResult, decimals = D_DECIMALS): string {
+  const lo = `${sym('d')} ${sym('le')} ${fixed(r.critical.lower, decimals)}`;
+  const hi = `${sym('d')} ${sym('ge')} ${fixed(r.critical.upper, decimals)}`;
+  if (r.alternative === 'positive') return lo;
+  if (r.alternative === 'negative') return hi;
+  return `${lo} or ${hi}`;
+}
+
+/** Plain words for a bounds-test zone. */
+export function zoneWords(zone: BoundsZone['zone']): string {
+  switch (zone) {
+    case 'reject-positive': return `below ${sym('dL')}: the bounds test rejects in favour of positive autocorrelation`;
+    case 'inconclusive-positive': return `between ${sym('dL')} and ${sym('dU')}: the bounds test is inconclusive`;
+    case 'no-evidence': return `between ${sym('dU')} and 4 ${sym('minus')} ${sym('dU')}: the bounds test finds no evidence of autocorrelation`;
+    case 'inconclusive-negative': return `between 4 ${sym('minus')} ${sym('dU')} and 4 ${sym('minus')} ${sym('dL')}: the bounds test is inconclusive (negative side)`;
+    case 'reject-negative': return `above 4 ${sym('minus')} ${sym('dL')}: the bounds test rejects in favour of negative autocorrelation`;
+    default: return String(zone);
+  }
+}
+
+/** Why the bounds test is not shown for a result without a bounds zone. */
+export function boundsAbsentReason(r: DwTestResult): string {
+  const why: string[] = [];
+  if (!r.intercept) why.push('the model has no intercept, and the bounds assume one');
+  if (r.lag > 1) why.push(`the statistic uses differences at lag ${r.lag}, and the classical bounds are for lag 1`);
+  if (r.gaps) why.push('the time index has gaps, so some differences are missing and the bounds do not hold');
+  if (why.length === 0) return 'The bounds were not computed for this run; the exact test above does not need them.';
+  return `The bounds test (${sym('dL')}, ${sym('dU')}) does not apply here: ${andList(why)}. The exact test above does not need it.`;
+}
+
+/** The engine in words. */
+export function engineWords(method: string): string {
+  if (method === 'imhof') return `Imhof's numerical inversion of the characteristic function, on the eigenvalues of the design ${cite('imhof-1961')}`;
+  if (method === 'pan') return `Pan's finite-range formula ${cite('pan-1968', 'farebrother-1980')}`;
+  if (method === 'eigenfree') return `Imhof's numerical inversion of the characteristic function, evaluated through a log-determinant without eigenvalues ${cite('imhof-1961')}`;
+  return plain(method);
+}
+
+function interceptWords(r: DwTestResult): string {
+  if (!r.intercept) return 'none';
+  return r.interceptAdded ? 'added by exact-dw' : 'a constant column of the data (detected, not duplicated)';
+}
+
+function regressorNames(r: DwTestResult): string[] {
+  return r.columns.filter((c, i) => !(r.interceptAdded && i === 0));
+}
+
+/** Rows of a power curve worth printing: all when short, else about eleven evenly spread. */
+export function powerRows(curve: { rho: number; power: number }[]): { rho: number; power: number }[] {
+  if (curve.length <= 12) return curve;
+  // prefer the rows at rho = 0.1, 0.2, ... when the curve has them
+  const tenths = curve.filter((c) => Math.abs(c.rho * 10 - Math.round(c.rho * 10)) < 1e-9);
+  if (tenths.length >= 4 && tenths.length <= 12) return tenths;
+  const picked = new Set<number>();
+  for (let i = 0; i <= 10; i++) picked.add(Math.round((i * (curve.length - 1)) / 10));
+  return [...picked].sort((a, b) => a - b).map((i) => curve[i]);
+}
+
+function conclusionStatic(r: DwTestResult): string {
+  const p = probability(r.pValue);
+  const a = level(r.alpha);
+  if (r.decision === 'reject') {
+    return `At ${sym('alpha')} = ${a} the exact test rejects the null hypothesis of no ${nullWords(r)} in favour of ${alternativeWords(r)}: ` +
+      `${sym('p')} = ${p} ${sym('le')} ${a}, and ${sym('d')} = ${fixed(r.d, D_DECIMALS)} lies in the rejection region ${rejectionRegion(r)}.`;
+  }
+  return `At ${sym('alpha')} = ${a} the exact test does not reject the null hypothesis of no ${nullWords(r)} against ${alternativeWords(r)}: ` +
+    `${sym('p')} = ${p} ${sym('gt')} ${a}, and ${sym('d')} = ${fixed(r.d, D_DECIMALS)} lies outside the rejection region ${rejectionRegion(r)}.`;
+}
+
+/** What the asymptotic tests of a dynamic model say at alpha, in words. */
+export function dynamicVerdict(r: DwTestResult, at = `at ${sym('alpha')} = ${level(r.alpha)}`): string {
+  const dyn = r.dynamic!;
+  const bg = dyn.breuschGodfrey.pChiSquare <= r.alpha;
+  const hp = dyn.durbinH.pValue;
+  if (hp === null || hp === undefined || !Number.isFinite(hp)) {
+    return bg
+      ? `the Breusch${sym('ndash')}Godfrey test rejects the null hypothesis of no autocorrelation ${at}`
+      : `the Breusch${sym('ndash')}Godfrey test does not reject the null hypothesis of no autocorrelation ${at}`;
+  }
+  const h = hp <= r.alpha;
+  if (h && bg) return `both asymptotic tests reject the null hypothesis of no autocorrelation ${at}`;
+  if (!h && !bg) return `neither asymptotic test rejects the null hypothesis of no autocorrelation ${at}`;
+  return h
+    ? `Durbin's ${sym('h')} rejects the null hypothesis of no autocorrelation ${at}, the Breusch${sym('ndash')}Godfrey test does not; the evidence is mixed`
+    : `the Breusch${sym('ndash')}Godfrey test rejects the null hypothesis of no autocorrelation ${at}, Durbin's ${sym('h')} does not; the evidence is mixed`;
+}
+
+function capitalise(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
+}
+
+/** Decimals of the asymptotic statistics (h, LM, F, t). */
+export const STAT_DECIMALS = 4;
+
+function dynamicSection(r: DwTestResult): ReportSection {
+  const dyn = r.dynamic!;
+  const bg = dyn.breuschGodfrey;
+  const hOk = dyn.durbinH.h !== null && Number.isFinite(dyn.durbinH.h);
+  const rows: string[][] = [
+    [`Durbin's ${sym('h')}`, hOk ? fixed(dyn.durbinH.h as number, STAT_DECIMALS) : 'undefined',
+      hOk && dyn.durbinH.pValue !== null ? probability(dyn.durbinH.pValue) : '', hOk ? 'normal' : ''],
+    [`Breusch${sym('ndash')}Godfrey LM, order ${bg.order}`, fixed(bg.lm, STAT_DECIMALS), probability(bg.pChiSquare), `${sym('chi2')}, ${bg.order} df`],
+    [`Breusch${sym('ndash')}Godfrey, ${sym('F')} form`, fixed(bg.f, STAT_DECIMALS), probability(bg.pF), `${sym('F')}(${bg.df1}, ${bg.df2})`],
+    [`Residual on its own lag, ${sym('t')}`, fixed(dyn.residualT.t, STAT_DECIMALS), probability(dyn.residualT.pValue), 'normal'],
+  ];
+  const blocks: ReportBlock[] = [
+    para(`The regressors include the lagged dependent variable ${code(dyn.laggedDependent)} (${dyn.how === 'declared' ? 'declared by the caller' : 'detected from the data'}). ` +
+      `With a lagged dependent variable, ${sym('d')} is biased towards 2 and its exact null distribution does not hold, so ${sym('d')} is not a valid test here ` +
+      `${cite('durbin-1970')}. The tests below replace it; their ${sym('p')}-values are asymptotic (large-sample) approximations ` +
+      `${cite('durbin-1970', 'breusch-1978', 'godfrey-1978')}.`),
+    { kind: 'table', head: ['Test', 'Statistic', `${sym('p')} (asymptotic)`, 'Reference'], align: ['l', 'r', 'r', 'l'], rows },
+  ];
+  if (!hOk) {
+    const why = prose(dyn.durbinH.reason);
+    blocks.push(para(/^Durbin's h\b/.test(dyn.durbinH.reason) ? why : `Durbin's ${sym('h')} is undefined: ${why}`));
+  }
+  return { id: 'dynamic', heading: 'Tests for a model with a lagged dependent variable (asymptotic)', blocks };
+}
+
+/**
+ * Build the format-neutral report of a test result.
+ *
+ * @example
+ * ```ts
+ * buildReport(exactDwTest({ y, x })).sections.map((s) => s.heading);
+ * ```
+ */
+export function buildReport(r: DwTestResult): ReportDocument {
+  const sections: ReportSection[] = [];
+  const valid = dIsValid(r);
+  const dText = fixed(r.d, D_DECIMALS);
+
+  // 1. conclusion first
+  if (valid) {
+    sections.push({ id: 'conclusion', heading: 'Conclusion', blocks: [para(conclusionStatic(r))] });
+  } else {
+    sections.push({
+      id: 'conclusion', heading: 'Conclusion', blocks: [para(
+        `The model has a lagged dependent variable, so the Durbin${sym('ndash')}Watson ${sym('d')} is not a valid test and its ${sym('p')}-value is not reported. ` +
+        `${capitalise(dynamicVerdict(r))} (asymptotic tests, see below).`)],
+    });
+    sections.push(dynamicSection(r));
+  }
+
+  // 2. the statistic
+  const statRows: [string, string][] = [[`Durbin${sym('ndash')}Watson ${sym('d')}`, dText]];
+  if (valid) {
+    statRows.push([`Exact null mean of ${sym('d')}`, fixed(r.nullMean, D_DECIMALS)]);
+    statRows.push([`Exact null standard deviation of ${sym('d')}`, fixed(Math.sqrt(r.nullVariance), D_DECIMALS)]);
+  }
+  statRows.push(['Differences', r.lag > 1 ? `lag ${r.lag} ${cite('wallis-1972')}` : 'lag 1']);
+  if (r.gaps) statRows.push(['Time index', `has gaps: only pairs exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart are differenced`]);
+  const statBlocks: ReportBlock[] = [
+    para(`${dFormula(r.lag)}, from the least-squares residuals e ${cite('durbin-watson-1950', 'durbin-watson-1951')}` +
+      (r.gaps ? `; the sum in the numerator runs over the pairs of observations exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart.` : '.')),
+    { kind: 'fields', rows: statRows },
+  ];
+  if (!valid) statBlocks.push(para(`Shown for reference only: ${sym('d')} is not a valid test in this model.`));
+  sections.push({ id: 'statistic', heading: 'The statistic', blocks: statBlocks });
+
+  if (valid) {
+    // 3. exact p-values
+    const mark = (alt: string) => (r.alternative === alt ? 'tested' : '');
+    sections.push({
+      id: 'p-values', heading: 'Exact p-values for this design', blocks: [
+        {
+          kind: 'table', head: ['Alternative', 'Probability', `${sym('p')}-value`, ''], align: ['l', 'l', 'r', 'l'], rows: [
+            ['positive autocorrelation', sym('PDle'), probability(r.pPositive), mark('positive')],
+            ['negative autocorrelation', sym('PDge'), probability(r.pNegative), mark('negative')],
+            ['either sign (two-sided)', `twice the smaller tail`, probability(r.pTwoSided), mark('two-sided')],
+          ],
+        },
+      ],
+    });
+
+    // 4. exact critical values
+    const tl = level(r.critical.tailLevel);
+    sections.push({
+      id: 'critical', heading: `Exact critical values at ${sym('alpha')} = ${level(r.alpha)}`, blocks: [
+        {
+          kind: 'fields', rows: [
+            [`Lower critical value, ${sym('PDlec')} = ${tl}`, fixed(r.critical.lower, D_DECIMALS)],
+            [`Upper critical value, ${sym('PDgec')} = ${tl}`, fixed(r.critical.upper, D_DECIMALS)],
+          ],
+        },
+        para(`Rejection region for the alternative tested (${alternativeWords(r)}): ${rejectionRegion(r)}. ` +
+          `These critical values are exact for this design matrix; they are not table bounds.`),
+      ],
+    });
+
+    // 5. bounds test
+    if (r.bounds) {
+      const b = r.bounds;
+      const rows: [string, string][] = [
+        [sym('dL'), fixed(b.dL, D_DECIMALS)],
+        [sym('dU'), fixed(b.dU, D_DECIMALS)],
+      ];
+      if (r.alternative !== 'positive') {
+        rows.push([`4 ${sym('minus')} ${sym('dU')}`, fixed(4 - b.dU, D_DECIMALS)]);
+        rows.push([`4 ${sym('minus')} ${sym('dL')}`, fixed(4 - b.dL, D_DECIMALS)]);
+      }
+      rows.push([`Tabulated for`, `${sym('n')} = ${r.n}, ${sym('kp')} = ${b.kPrime} regressors besides the intercept, level ${level(b.level)}`]);
+      rows.push([`Zone of the observed ${sym('d')}`, zoneWords(b.zone)]);
+      sections.push({
+        id: 'bounds', heading: 'The classical bounds test', blocks: [
+          { kind: 'fields', rows },
+          para(prose(b.resolution)),
+          para(`The bounds ${sym('dL')} and ${sym('dU')} of the classical test ${cite('durbin-watson-1950', 'durbin-watson-1951')} are computed exactly for this ${sym('n')} and ${sym('kp')}; ` +
+            `printed tables ${cite('savin-white-1977')} give the same values to three decimals. They hold for every design with an intercept and ${sym('k')} columns; the critical values above are for this one.`),
+        ],
+      });
+    } else {
+      sections.push({ id: 'bounds', heading: 'The classical bounds test', blocks: [para(boundsAbsentReason(r))] });
+    }
+
+    // 6. power
+    if (r.power) {
+      const pw = r.power;
+      const target = `${fixed(pw.target * 100, 0)}${sym('percent')}`;
+      sections.push({
+        id: 'power', heading: 'Exact power against AR(1) errors', blocks: [
+          {
+            kind: 'fields', rows: [
+              ['Level', level(pw.alpha)],
+              ['Exact critical value used', fixed(pw.critical, D_DECIMALS)],
+            ],
+          },
+          {
+            kind: 'table', head: [`AR(1) coefficient ${sym('rho')}`, 'Exact power'], align: ['r', 'r'],
+            rows: powerRows(pw.curve).map((c) => [level(c.rho), fixed(c.power, 4)]),
+          },
+          para(pw.rhoAtTarget !== null && pw.rhoAtTarget !== undefined
+            ? `The power reaches ${target} at ${sym('rho')} = ${fixed(pw.rhoAtTarget, 3)}.`
+            : `The power does not reach ${target} for any ${sym('rho')} ${sym('lt')} 1 with this design.`),
+          para(`Power of the one-sided test for positive autocorrelation, with stationary errors u(t) = ${sym('rho')} u(t ${sym('minus')} 1) + e(t), computed exactly for this design matrix.`),
+        ],
+      });
+    }
+  } else {
+    const left = ['exact p-values', 'critical values', 'bounds test'];
+    if (r.power) left.push('power curve');
+    sections.push({
+      id: 'not-shown', heading: 'Not shown for this model', blocks: [
+        para(`The ${andList(left)} of ${sym('d')} are left out: they assume that no regressor is a lagged dependent variable.`),
+      ],
+    });
+  }
+
+  // 7. data and model
+  const regs = regressorNames(r);
+  const modelRows: [string, string][] = [
+    [`Observations ${sym('n')}`, String(r.n)],
+    [`Columns of X, ${sym('k')} (including any intercept)`, String(r.k)],
+    [`Residual degrees of freedom, ${sym('m')} = ${sym('n')} ${sym('minus')} ${sym('k')}`, String(r.m)],
+    ['Intercept', interceptWords(r)],
+    ['Regressors', regs.length ? regs.map(code).join(', ') : 'none (intercept only)'],
+  ];
+  if (r.rSquared !== null && r.rSquared !== undefined) modelRows.push([sym('R2'), Number.isFinite(r.rSquared) ? fixed(r.rSquared, 4) : 'undefined']);
+  const modelBlocks: ReportBlock[] = [{ kind: 'fields', rows: modelRows }];
+  if (r.coefficients && r.coefficients.length) {
+    modelBlocks.push({
+      kind: 'table', head: ['Column', 'Estimate', 'Standard error'], align: ['l', 'r', 'r'],
+      rows: r.coefficients.map((c) => [code(c.name), estimate(c.estimate), Number.isFinite(c.stdError) ? estimate(c.stdError) : 'n/a']),
+    });
+    modelBlocks.push(para('Least-squares fit; standard errors from the usual estimate of the error variance.'));
+  } else {
+    modelBlocks.push(para('The residuals were supplied by the caller, so no fitted coefficients are shown.'));
+  }
+  sections.push({ id: 'model', heading: 'Data and model', blocks: modelBlocks });
+
+  // 8. computation
+  const compRows: [string, string][] = [];
+  if (valid) {
+    compRows.push(['Method', engineWords(r.method)]);
+    if (r.methodReason) compRows.push(['Why this method', prose(r.methodReason)]);
+    compRows.push([`Numerical error bound (${sym('p')}-values)`, bound(r.errorBound)]);
+  } else {
+    compRows.push(['Method', `asymptotic normal, ${sym('chi2')} and ${sym('F')} reference distributions`]);
+  }
+  compRows.push(['Software', `exact-dw ${VERSION}`]);
+  sections.push({ id: 'computation', heading: 'Computation', blocks: [{ kind: 'fields', rows: compRows }] });
+
+  // 9. notes
+  if (r.warnings.length) sections.push({ id: 'notes', heading: 'Notes', blocks: [{ kind: 'list', items: r.warnings.map(prose) }] });
+
+  // 10. cautions
+  sections.push({
+    id: 'cautions', heading: 'Cautions', blocks: [{
+      kind: 'list', items: [
+        'The exact null distribution assumes errors that are independent and normally distributed with constant variance under the null hypothesis.',
+        'The regressors must be fixed or strictly exogenous.',
+        `No lagged dependent variable may be among the regressors: then ${sym('d')} is biased towards 2 and is not a valid test; Durbin's ${sym('h')} or the Breusch${sym('ndash')}Godfrey test replace it.`,
+        `The bounds ${sym('dL')} and ${sym('dU')} assume a model with an intercept and lag-1 differences of consecutive observations; the exact test does not.`,
+        `A non-significant result is not proof of independent errors: ${sym('d')} is aimed at ${r.lag > 1 ? `autocorrelation at lag ${r.lag}` : 'first-order (AR(1)-type) dependence'}.`,
+        "This result supports, and does not replace, the analyst's judgement and the reporting rules of their field.",
+      ],
+    }],
+  });
+
+  // 11. the works cited above, in order of first citation
+  const keys = citedIn(sections);
+  if (keys.length) sections.push({ id: 'references', heading: 'References', blocks: [{ kind: 'references', keys }] });
+
+  return { title: `Exact Durbin${sym('ndash')}Watson test`, producer: `exact-dw ${VERSION}`, sections };
+}
+
+/** BibTeX keys of the citation tokens in neutral text, in order of first appearance. */
+export function citedIn(sections: ReportSection[]): string[] {
+  const texts: string[] = [];
+  for (const s of sections) {
+    texts.push(s.heading);
+    for (const b of s.blocks) {
+      if (b.kind === 'para') texts.push(b.text);
+      else if (b.kind === 'list') texts.push(...b.items);
+      else if (b.kind === 'fields') for (const [l, v] of b.rows) texts.push(l, v);
+      else if (b.kind === 'table') texts.push(...b.head, ...b.rows.flat());
+    }
+  }
+  const keys: string[] = [];
+  for (const t of texts) {
+    for (const m of t.matchAll(/⟨cite:([^⟩]*)⟩/g)) {
+      for (const k of m[1].split(',')) if (!keys.includes(k)) keys.push(k);
+    }
+  }
+  return keys;
+}

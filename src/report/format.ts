@@ -1,0 +1,252 @@
+/**
+ * Number formatting and inline markup shared by every report format, so that a number is rounded
+ * once, in one place, and reads the same in text, Markdown, LaTeX and the paper paragraph.
+ *
+ * Report text is first written in a neutral form: plain words plus tokens in angle quotes
+ * (`⟨dL⟩`, `⟨alpha⟩`, `⟨sci:1.2:-4⟩`, ...). {@link inline} then turns it into one output format,
+ * escaping the plain words for that format and replacing each token by its spelling there.
+ */
+import { citeInline } from './citations.js';
+
+/** Output formats of the renderers. */
+export type InlineFormat = 'text' | 'markdown' | 'latex';
+
+const OPEN = '⟨';
+const CLOSE = '⟩';
+
+/** Spelling of each symbol token in each format. */
+const SYMBOLS: Record<string, Record<InlineFormat, string>> = {
+  d: { text: 'd', markdown: '*d*', latex: '$d$' },
+  D: { text: 'D', markdown: '*D*', latex: '$D$' },
+  dL: { text: 'd_L', markdown: '*d*<sub>L</sub>', latex: '$d_L$' },
+  dU: { text: 'd_U', markdown: '*d*<sub>U</sub>', latex: '$d_U$' },
+  n: { text: 'n', markdown: '*n*', latex: '$n$' },
+  k: { text: 'k', markdown: '*k*', latex: '$k$' },
+  kp: { text: "k'", markdown: "*k*'", latex: "$k'$" },
+  m: { text: 'm', markdown: '*m*', latex: '$m$' },
+  h: { text: 'h', markdown: '*h*', latex: '$h$' },
+  p: { text: 'p', markdown: '*p*', latex: '$p$' },
+  t: { text: 't', markdown: '*t*', latex: '$t$' },
+  F: { text: 'F', markdown: '*F*', latex: '$F$' },
+  alpha: { text: 'alpha', markdown: 'α', latex: '$\\alpha$' },
+  rho: { text: 'rho', markdown: 'ρ', latex: '$\\rho$' },
+  R2: { text: 'R^2', markdown: '*R*²', latex: '$R^2$' },
+  chi2: { text: 'chi-square', markdown: 'χ²', latex: '$\\chi^2$' },
+  le: { text: '<=', markdown: '≤', latex: '$\\le$' },
+  ge: { text: '>=', markdown: '≥', latex: '$\\ge$' },
+  lt: { text: '<', markdown: '<', latex: '$<$' },
+  gt: { text: '>', markdown: '>', latex: '$>$' },
+  minus: { text: '-', markdown: '-', latex: '$-$' },
+  ndash: { text: '-', markdown: '–', latex: '--' },
+  pm: { text: '+/-', markdown: '±', latex: '$\\pm$' },
+  percent: { text: '%', markdown: '%', latex: '\\%' },
+  PDle: { text: 'P(D <= d)', markdown: 'P(*D* ≤ *d*)', latex: '$P(D \\le d)$' },
+  PDge: { text: 'P(D >= d)', markdown: 'P(*D* ≥ *d*)', latex: '$P(D \\ge d)$' },
+  PDlec: { text: 'P(D <= c)', markdown: 'P(*D* ≤ *c*)', latex: '$P(D \\le c)$' },
+  PDgec: { text: 'P(D >= c)', markdown: 'P(*D* ≥ *c*)', latex: '$P(D \\ge c)$' },
+};
+
+/** A symbol token, e.g. `sym('dL')`. */
+export function sym(name: keyof typeof SYMBOLS & string): string {
+  if (!(name in SYMBOLS)) throw new RangeError(`report: unknown symbol ${name}`);
+  return `${OPEN}${name}${CLOSE}`;
+}
+
+/**
+ * Remove the token quotes from text that comes from the caller (column names) or from other
+ * modules (reasons, warnings), so that it is always printed as plain words.
+ */
+export function plain(s: string): string {
+  return s.replace(/[⟨⟩]/g, (c) => (c === OPEN ? '<' : '>'));
+}
+
+/**
+ * Text written elsewhere in the library (a bounds resolution, a warning, a reason): plain words,
+ * with the trade's notations it uses (d_L, d_U, <=, >=) set as symbols in each format.
+ */
+export function prose(s: string): string {
+  return plain(s)
+    .replace(/\bd_L\b/g, sym('dL'))
+    .replace(/\bd_U\b/g, sym('dU'))
+    .replace(/ <= /g, ` ${sym('le')} `)
+    .replace(/ >= /g, ` ${sym('ge')} `);
+}
+
+/** Escape plain words for LaTeX text mode. */
+export function escapeLatex(s: string): string {
+  return s.replace(/[\\{}#$%&_^~<>|"]/g, (c) => {
+    switch (c) {
+      case '\\': return '\\textbackslash{}';
+      case '{': return '\\{';
+      case '}': return '\\}';
+      case '^': return '\\textasciicircum{}';
+      case '~': return '\\textasciitilde{}';
+      case '<': return '\\textless{}';
+      case '>': return '\\textgreater{}';
+      case '|': return '\\textbar{}';
+      case '"': return "''";
+      default: return `\\${c}`;
+    }
+  });
+}
+
+/** Escape plain words for Markdown (also safe inside a table cell). */
+export function escapeMarkdown(s: string): string {
+  return s.replace(/[\\`*_|[\]<>#]/g, (c) => {
+    if (c === '<') return '&lt;';
+    if (c === '>') return '&gt;';
+    return `\\${c}`;
+  });
+}
+
+/** Turn neutral report text into one format: escape the words, spell the tokens. */
+export function inline(s: string, format: InlineFormat): string {
+  let out = '';
+  let i = 0;
+  while (i < s.length) {
+    const a = s.indexOf(OPEN, i);
+    if (a < 0) { out += escapeWords(s.slice(i), format); break; }
+    const b = s.indexOf(CLOSE, a + 1);
+    if (b < 0) throw new RangeError('report: unclosed token');
+    out += escapeWords(s.slice(i, a), format);
+    out += token(s.slice(a + 1, b), format);
+    i = b + 1;
+  }
+  return out;
+}
+
+function escapeWords(s: string, format: InlineFormat): string {
+  if (format === 'latex') return escapeLatex(s);
+  if (format === 'markdown') return escapeMarkdown(s);
+  return s;
+}
+
+function token(t: string, format: InlineFormat): string {
+  if (t.startsWith('sci:')) {
+    const [, mant, exp] = t.split(':');
+    if (format === 'latex') return `$${mant.replace(/^-/, '-')} \\times 10^{${exp}}$`;
+    if (format === 'markdown') return `${mant} × 10<sup>${exp}</sup>`;
+    return `${mant}e${exp}`;
+  }
+  if (t.startsWith('dformula:')) {
+    // d = sum (e_t - e_{t-j})^2 / sum e_t^2
+    const j = t.slice(9);
+    if (format === 'latex') return `$d = \\sum_t (e_t - e_{t-${j}})^2 / \\sum_t e_t^2$`;
+    if (format === 'markdown') return `*d* = Σ (*e*<sub>t</sub> - *e*<sub>t-${j}</sub>)<sup>2</sup> / Σ *e*<sub>t</sub><sup>2</sup>`;
+    return `d = sum (e(t) - e(t-${j}))^2 / sum e(t)^2`;
+  }
+  if (t.startsWith('code:')) {
+    const body = t.slice(5);
+    if (format === 'latex') return `\\texttt{${escapeLatex(body)}}`;
+    if (format === 'markdown') return '`' + body.replace(/`/g, "'") + '`';
+    return body;
+  }
+  if (t.startsWith('cite:')) return citeInline(t.slice(5).split(','), format);
+  const s = SYMBOLS[t];
+  if (!s) throw new RangeError(`report: unknown token ${t}`);
+  return s[format];
+}
+
+/** The definition of d at lag j as a formula token. */
+export function dFormula(lag: number): string {
+  return `${OPEN}dformula:${lag}${CLOSE}`;
+}
+
+/** An in-text citation token of the works with these BibTeX keys (see citations.ts). */
+export function cite(...keys: string[]): string {
+  return `${OPEN}cite:${keys.join(',')}${CLOSE}`;
+}
+
+/** A column name or other caller text shown verbatim (monospace in Markdown and LaTeX). */
+export function code(s: string): string {
+  return `${OPEN}code:${s.replace(/[⟨⟩]/g, '')}${CLOSE}`;
+}
+
+// ---------------------------------------------------------------------------------------------
+// numbers
+
+/** x with a minus token when negative, never "-0". */
+function signed(body: string, negative: boolean): string {
+  return negative ? `${sym('minus')}${body}` : body;
+}
+
+/** Fixed decimals, e.g. fixed(1.23456, 4) = "1.2346". */
+export function fixed(x: number, decimals: number): string {
+  if (!Number.isFinite(x)) return String(x);
+  const s = Math.abs(x).toFixed(decimals);
+  const zero = Number(s) === 0;
+  return signed(s, x < 0 && !zero);
+}
+
+/** Scientific form mantissa x 10^exp as a token, `digits` significant digits. */
+export function scientific(x: number, digits: number): string {
+  const [mant, exp] = Math.abs(x).toExponential(digits - 1).split('e');
+  return signed(`${OPEN}sci:${mant}:${Number(exp)}${CLOSE}`, x < 0);
+}
+
+/**
+ * A probability in a report: four decimals from 0.001 up, below that three significant digits in
+ * scientific form; exactly 0 as "0".
+ */
+export function probability(p: number): string {
+  if (p === 0) return '0';
+  if (p >= 0.001) return fixed(p, 4);
+  return scientific(p, 3);
+}
+
+/** Rounding of a probability in a report, as a number (for the checks that parse reports back). */
+export const PROBABILITY_DECIMALS = 4;
+
+/**
+ * A p-value for the paper: two significant digits, "< 0.001" below 0.001, "> 0.99" when two
+ * digits would round it to 1. Returns the relation and the number, e.g. ['=', '0.021'].
+ */
+export function paperP(p: number): [string, string] {
+  if (p < 0.001) return [sym('lt'), '0.001'];
+  const s = p.toPrecision(2);
+  if (Number(s) >= 1) return [sym('gt'), '0.99'];
+  // toPrecision may give exponent form for tiny values; they are excluded above
+  return ['=', s];
+}
+
+/** An upper bound: rounded up to two significant digits in scientific form ("2.4e-12"). */
+export function bound(x: number): string {
+  if (x === 0) return '0';
+  if (!Number.isFinite(x)) return String(x);
+  const e = Math.floor(Math.log10(x));
+  let mant = Math.ceil((x / 10 ** e) * 10 - 1e-9) / 10;
+  let exp = e;
+  if (mant >= 10) { mant /= 10; exp += 1; }
+  const m = mant.toFixed(1);
+  // guard against the division above rounding below x
+  return Number(`${m}e${exp}`) >= x ? `${OPEN}sci:${m}:${exp}${CLOSE}` : `${OPEN}sci:${(Number(m) + 0.1).toFixed(1)}:${exp}${CLOSE}`;
+}
+
+/** A regression coefficient or standard error: four significant digits, scientific when tiny or huge. */
+export function estimate(x: number): string {
+  if (x === 0) return '0';
+  if (!Number.isFinite(x)) return String(x);
+  const a = Math.abs(x);
+  if (a < 1e-3 || a >= 1e6) return scientific(x, 4);
+  // four significant digits in fixed notation (toPrecision would switch to exponents from 1e4)
+  const decimals = Math.max(0, 3 - Math.floor(Math.log10(a)));
+  let s = a.toFixed(decimals);
+  if (s.replace('.', '').replace(/^0+/, '').length > 4 && decimals > 0) s = a.toFixed(decimals - 1); // 9.9996 -> "10.00"
+  return signed(s, x < 0);
+}
+
+/** alpha as a percentage without trailing zeros: 0.05 -> "5", 0.025 -> "2.5". */
+export function percent(alpha: number): string {
+  return String(Number((alpha * 100).toPrecision(10)));
+}
+
+/** A level such as alpha as a plain decimal without trailing zeros (0.05 -> "0.05"). */
+export function level(x: number): string {
+  return String(Number(x.toPrecision(10)));
+}
+
+/** Join words as "a, b and c". */
+export function andList(items: string[]): string {
+  if (items.length <= 1) return items.join('');
+  return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
+}

@@ -1,0 +1,138 @@
+/**
+ * The one place where the page reaches the report and power modules of the library. The page and
+ * its worker call only these functions, so that a renderer that changes its signature is adapted
+ * here and nowhere else. `capabilities` says which parts this build can show; for a part that is
+ * off, its function returns null and the page says "not part of this build". Nothing here computes
+ * a statistic: every number comes from the library.
+ *
+ * The lines marked "REPORTS" depend on src/report (issue 5), those marked "POWER" on src/power
+ * (issue 7). To build the page without one of them: remove its marked import, set its
+ * capabilities to false, and replace each of its other marked lines by `return null;`.
+ */
+import type { DwTestInput, DwTestResult } from '../inference/dw-test.js';
+import { prepareProblem, type DwProblem } from '../inference/problem.js';
+import { renderText } from '../report/text.js';
+import { renderDensitySvg, paperParagraph, renderMarkdown } from '../report/index.js'; // REPORTS
+import { powerForProblem } from '../power/exact-power.js'; // POWER
+
+/** Which optional parts this build of the page can show. */
+export const capabilities: Readonly<Record<'figure' | 'paragraph' | 'markdown' | 'power', boolean>> = {
+  figure: true, // REPORTS (false without)
+  paragraph: true, // REPORTS (false without)
+  markdown: true, // REPORTS (false without)
+  power: true, // POWER (false without)
+};
+
+/** The paragraph for a paper in the formats the report module offers. */
+export interface Paragraph {
+  plain: string;
+  markdown: string | null;
+  latex: string | null;
+}
+
+/** Exact power of the test at one rho (METHODS.md section 6), as computed by the library. */
+export interface PowerAtRho {
+  rho: number;
+  power: number;
+  /** Bound on the numerical error of `power`. */
+  errorBound: number;
+  /** The exact critical value the test rejects beyond (the lower one for a two-sided test). */
+  critical: number;
+  /** The target power and the rho closest to 0 that reaches it (null when none below 1 does). */
+  target: number;
+  rhoAtTarget: number | null;
+}
+
+/** Everything the page shows beyond the test result itself. */
+export interface ReportExtras {
+  /** Plain-text report (src/report/text.ts). */
+  text: string;
+  /** SVG of the exact null density with d and the critical values marked. */
+  figure: string | null;
+  paragraph: Paragraph | null;
+  /** Full Markdown report. */
+  markdown: string | null;
+  power: PowerAtRho | null;
+}
+
+/**
+ * The prepared problem of the tested design (the null distribution behind the figure and the
+ * factorization behind the power), built once per input.
+ */
+const problems = new WeakMap<DwTestInput, DwProblem>();
+function problemOf(input: DwTestInput, result: DwTestResult): DwProblem {
+  let p = problems.get(input);
+  if (!p) {
+    p = prepareProblem(input.x, result.n, input);
+    problems.set(input, p);
+  }
+  return p;
+}
+
+/**
+ * The plain-text report of a result.
+ *
+ * @example
+ * ```ts
+ * textReport(exactDwTest({ y, x })); // the terminal report
+ * ```
+ */
+export function textReport(result: DwTestResult): string {
+  return renderText(result);
+}
+
+/**
+ * The SVG figure of the exact null density, or null when the report module is not built in or
+ * when d is not a valid test (a lagged dependent variable: the report module draws no figure then).
+ *
+ * @example
+ * ```ts
+ * figureSvg(input, exactDwTest(input)); // '<svg ...>'
+ * ```
+ */
+export function figureSvg(input: DwTestInput, result: DwTestResult): string | null {
+  if (!capabilities.figure || result.dynamic) return null;
+  return renderDensitySvg(result, problemOf(input, result).distribution, { idPrefix: 'page-figure' }); // REPORTS
+}
+
+/**
+ * The paragraph for a paper in plain text, Markdown and LaTeX, or null without the report module.
+ *
+ * @example
+ * ```ts
+ * paragraphFor(exactDwTest(input))?.plain;
+ * ```
+ */
+export function paragraphFor(result: DwTestResult): Paragraph | null {
+  if (!capabilities.paragraph) return null;
+  return { plain: paperParagraph(result, 'text'), markdown: paperParagraph(result, 'markdown'), latex: paperParagraph(result, 'latex') }; // REPORTS
+}
+
+/**
+ * The full Markdown report, or null without the report module.
+ *
+ * @example
+ * ```ts
+ * markdownReport(exactDwTest(input)); // '# Exact Durbin-Watson test ...'
+ * ```
+ */
+export function markdownReport(result: DwTestResult): string | null {
+  if (!capabilities.markdown) return null;
+  return renderMarkdown(result); // REPORTS
+}
+
+/**
+ * Exact power at `rho` for the design of `input`, for the test at the result's alpha and
+ * alternative; null without the power module or when no rho is asked for. A bad rho raises the
+ * library's DwError.
+ *
+ * @example
+ * ```ts
+ * powerAt(input, exactDwTest(input), 0.5)?.power;
+ * ```
+ */
+export function powerAt(input: DwTestInput, result: DwTestResult, rho: number | null): PowerAtRho | null {
+  if (!capabilities.power || rho === null) return null;
+  const s = powerForProblem(problemOf(input, result), { rho: [rho], alpha: result.alpha, alternative: result.alternative, times: input.times }); // POWER
+  return { rho, power: s.curve[0].power, errorBound: s.curve[0].errorBound, critical: s.critical, target: s.target, rhoAtTarget: s.rhoAtTarget }; // POWER
+}

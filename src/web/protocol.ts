@@ -1,0 +1,77 @@
+/**
+ * The messages between the page (main.ts) and its computing worker (worker.ts). Only plain data
+ * crosses: the test result is the library's own DwTestResult, structured-cloned as it is.
+ */
+import type { Alternative, DwTestResult } from '../inference/dw-test.js';
+import type { MethodChoice } from '../core/types.js';
+import type { ReportExtras } from './adapter.js';
+
+/** How to read the CSV text ('auto' lets the library detect it). */
+export interface ReadOptions {
+  delimiter: 'auto' | ',' | ';' | '\t';
+  decimal: 'auto' | 'point' | 'comma';
+}
+
+/** The data as the user gave it. */
+export interface DataSource extends ReadOptions {
+  text: string;
+  /** Shown in messages: the file name, 'the demo data' or 'the pasted text'. */
+  source: string;
+}
+
+/** What the user chose for the model and the test. */
+export interface ModelChoice {
+  y: string;
+  x: string[];
+  /** Time column (not a regressor), or null. */
+  time: string | null;
+  lag: number;
+  intercept: boolean;
+  alternative: Alternative;
+  alpha: number;
+  /** rho at which to show the exact power, or null for none. */
+  rho: number | null;
+  method: MethodChoice;
+}
+
+export type Request =
+  | { kind: 'inspect'; id: number; data: DataSource }
+  | { kind: 'compute'; id: number; data: DataSource; model: ModelChoice };
+
+/** A column of the table as the page shows it. */
+export interface ColumnInfo {
+  name: string;
+  /** Every cell is a number. */
+  numeric: boolean;
+  /** Whole numbers, strictly increasing: can serve as the time column. */
+  timeLike: boolean;
+}
+
+/** Summary of a parsed table for the column pickers. */
+export interface TableSummary {
+  source: string;
+  columns: ColumnInfo[];
+  rows: number;
+  delimiter: string;
+  decimal: 'point' | 'comma';
+  /** The first rows, as text. */
+  preview: string[][];
+  /** A first choice of y, the regressors and the time column. */
+  guess: { y: string | null; x: string[]; time: string | null };
+}
+
+/** An error as the user sees it: the library's message and hint, never a stack. */
+export interface PlainError {
+  code: string;
+  message: string;
+  hint: string;
+}
+
+/** An optional part of the result (power, figure, paragraph, Markdown report) that failed. */
+export type OptionalPart = 'power' | 'figure' | 'paragraph' | 'markdown';
+
+export type Reply =
+  | { kind: 'progress'; id: number; step: number; steps: number; stage: string }
+  | { kind: 'inspected'; id: number; table: TableSummary }
+  | { kind: 'result'; id: number; result: DwTestResult; extras: ReportExtras; failures: Partial<Record<OptionalPart, PlainError>> }
+  | { kind: 'error'; id: number; error: PlainError };

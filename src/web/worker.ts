@@ -1,0 +1,107 @@
+/**
+ * The page's computing worker: reads the CSV, runs the library's exact test and asks the adapter
+ * for the report parts, off the main thread so that the page stays responsive. It reports the
+ * stage it is in before each step; the page shows that as progress and may end the worker to
+ * cancel.
+ */
+import { parseCsv, numericColumn, type CsvOptions, type DataTable } from '../data/csv.js';
+import { exactDwTest, type DwTestInput } from '../inference/dw-test.js';
+import { figureSvg, markdownReport, paragraphFor, powerAt, textReport, type ReportExtras } from './adapter.js';
+import { guessColumns, summarizeColumns } from './columns.js';
+import { plainError } from './plain-error.js';
+import type { DataSource, ModelChoice, OptionalPart, PlainError, Reply, Request, TableSummary } from './protocol.js';
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+
+function post(reply: Reply): void {
+  scope.postMessage(reply);
+}
+
+/** The last table read, kept so that changing the model does not read the file again. */
+let cache: { key: string; table: DataTable } | null = null;
+
+function readTable(data: DataSource): DataTable {
+  const key = `${data.delimiter}|${data.decimal}|${data.source}|${data.text}`;
+  if (cache && cache.key === key) return cache.table;
+  const options: CsvOptions = { source: data.source };
+  if (data.delimiter !== 'auto') options.delimiter = data.delimiter;
+  if (data.decimal !== 'auto') options.decimal = data.decimal;
+  const table = parseCsv(data.text, options);
+  cache = { key, table };
+  return table;
+}
+
+function inspect(id: number, data: DataSource): void {
+  const table = readTable(data);
+  const columns = summarizeColumns(table);
+  const summary: TableSummary = {
+    source: data.source,
+    columns,
+    rows: table.rows.length,
+    delimiter: table.delimiter,
+    decimal: table.decimal,
+    preview: table.rows.slice(0, 6),
+    guess: guessColumns(columns),
+  };
+  post({ kind: 'inspected', id, table: summary });
+}
+
+function compute(id: number, data: DataSource, model: ModelChoice): void {
+  const steps = model.rho === null ? 4 : 5;
+  let step = 0;
+  const stage = (text: string): void => post({ kind: 'progress', id, step: step++, steps, stage: text });
+
+  stage('Reading the columns');
+  const table = readTable(data);
+  const y = numericColumn(table, model.y);
+  const x: Record<string, Float64Array> = {};
+  for (const name of model.x) x[name] = numericColumn(table, name);
+  const times = model.time === null ? undefined : numericColumn(table, model.time);
+  const input: DwTestInput = {
+    y, x, times,
+    lag: model.lag,
+    intercept: model.intercept,
+    alternative: model.alternative,
+    alpha: model.alpha,
+    method: model.method,
+  };
+
+  stage('Fitting the regression; exact p-values and critical values');
+  const result = exactDwTest(input);
+
+  // The optional parts: a failure in one of them (a rho out of range, a size limit) is shown in its
+  // own panel and does not take the test result away.
+  const failures: Partial<Record<OptionalPart, PlainError>> = {};
+  const optional = <T>(part: OptionalPart, make: () => T | null): T | null => {
+    try { return make(); } catch (err) { failures[part] = plainError(err); return null; }
+  };
+  let power = null;
+  if (model.rho !== null) {
+    stage(`Exact power at rho = ${model.rho}`);
+    power = optional('power', () => powerAt(input, result, model.rho));
+  }
+  stage('Drawing the exact null density');
+  const figure = optional('figure', () => figureSvg(input, result));
+  stage('Writing the report and the paragraph');
+  const extras: ReportExtras = {
+    text: textReport(result),
+    figure,
+    paragraph: optional('paragraph', () => paragraphFor(result)),
+    markdown: optional('markdown', () => markdownReport(result)),
+    power,
+  };
+  post({ kind: 'result', id, result, extras, failures });
+}
+
+scope.addEventListener('message', (event: MessageEvent<Request>) => {
+  const request = event.data;
+  try {
+    if (request.kind === 'inspect') inspect(request.id, request.data);
+    else compute(request.id, request.data, request.model);
+  } catch (err) {
+    post({ kind: 'error', id: request.id, error: plainError(err) });
+  }
+});
+
+// A sign of life, so that the page knows the worker started under its security policy.
+post({ kind: 'progress', id: 0, step: 0, steps: 0, stage: 'ready' });
