@@ -4,8 +4,8 @@
  * 1 - cdf, and both tails have their own inverse.
  */
 import { DwError } from '../errors.js';
-import type { MethodChoice, TailProbability } from '../core/types.js';
-import { tailProbability } from '../engines/choose.js';
+import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
+import { tailProbability, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { imhofDensity } from '../engines/imhof.js';
 import { brentRoot } from './root.js';
 import { spectrumSource, type NullSource } from './source.js';
@@ -91,11 +91,17 @@ export class DwNullDistribution {
     return { ...r, errorBound, relativeError: r.relativeError + extra / r.p };
   }
 
-  /** P(d <= c). */
-  cdf(c: number): number { return this.lowerTail(c).p; }
+  /** P(d <= c) (the number alone: no error-bound bookkeeping, so it is cheap inside root finders). */
+  cdf(c: number): number {
+    checkPoint(c);
+    return tailProbability(this.source, c, 'lower', this.options).p;
+  }
 
-  /** P(d >= c) (the upper tail, computed directly). */
-  sf(c: number): number { return this.upperTail(c).p; }
+  /** P(d >= c) (the upper tail, computed directly; the number alone, as for {@link cdf}). */
+  sf(c: number): number {
+    checkPoint(c);
+    return tailProbability(this.source, c, 'upper', this.options).p;
+  }
 
   /** The exact density of d at c (the derivative of the exact CDF). */
   pdf(c: number): number {
@@ -110,8 +116,7 @@ export class DwNullDistribution {
     if (p === 0) return lo;
     if (p === 1) return hi;
     // above the median solve on the upper tail, which keeps relative accuracy as p -> 1
-    if (p > 0.5) return brentRoot((c) => p - 1 + this.sf(c), lo, hi, 1e-12 * Math.max(1, hi - lo));
-    return brentRoot((c) => this.cdf(c) - p, lo, hi, 1e-12 * Math.max(1, hi - lo));
+    return p > 0.5 ? this.solveTail('upper', 1 - p) : this.solveTail('lower', p);
   }
 
   /** The c with P(d >= c) = p (the upper critical value at level p). */
@@ -120,9 +125,50 @@ export class DwNullDistribution {
     const [lo, hi] = this.support;
     if (p === 0) return hi;
     if (p === 1) return lo;
-    if (p > 0.5) return brentRoot((c) => 1 - p - this.cdf(c), lo, hi, 1e-12 * Math.max(1, hi - lo));
-    return brentRoot((c) => this.sf(c) - p, lo, hi, 1e-12 * Math.max(1, hi - lo));
+    return p > 0.5 ? this.solveTail('lower', 1 - p) : this.solveTail('upper', p);
   }
+
+  /**
+   * The c at which the given tail has probability q (0 < q <= 1/2), by Brent's method on a bracket
+   * grown from the normal approximation with the exact mean and variance. For q >= 1e-4 the
+   * absolute accuracy of Imhof's integral (about 1e-11) is ample, so `auto` uses it directly
+   * during the search; smaller q keep the full choice (relative accuracy in the far tail).
+   */
+  private solveTail(tail: Tail, q: number): number {
+    const [lo, hi] = this.support;
+    const method = (this.options.method ?? 'auto') === 'auto' && q >= 1e-4 && (this.source.hasSpectrum() || !this.source.operator || (this.source.basis?.n ?? 0) <= AUTO_SPECTRUM_MAX_N)
+      ? 'imhof' : this.options.method;
+    const opts = { ...this.options, method };
+    // g increases with c: P(d <= c) - q for the lower tail, q - P(d >= c) for the upper tail
+    const g = (c: number) => {
+      const t = tailProbability(this.source, c, tail, opts).p;
+      return tail === 'lower' ? t - q : q - t;
+    };
+    // normal approximation: lower tail at mean - z sd, upper at mean + z sd
+    const sd = Math.sqrt(this.variance);
+    const z = normalQuantileUpper(q);
+    const guess = Math.min(hi, Math.max(lo, this.mean + (tail === 'lower' ? -z : z) * sd));
+    let x0 = guess, x1 = guess;
+    let g0 = g(guess), g1 = g0;
+    let step = 0.25 * sd;
+    if (g0 > 0) {
+      // the root lies below the guess
+      while (g0 > 0 && x0 > lo) { x1 = x0; g1 = g0; x0 = Math.max(lo, x0 - step); g0 = g(x0); step *= 2; }
+    } else {
+      while (g1 < 0 && x1 < hi) { x0 = x1; g0 = g1; x1 = Math.min(hi, x1 + step); g1 = g(x1); step *= 2; }
+    }
+    if (g0 === 0) return x0;
+    if (g1 === 0) return x1;
+    return brentRoot(g, x0, x1, 1e-11 * Math.max(1, hi - lo));
+  }
+}
+
+/** The z with P(Z > z) = q for a standard normal Z, roughly (a starting value only). */
+function normalQuantileUpper(q: number): number {
+  const p = Math.min(Math.max(q, 1e-300), 0.5);
+  const t = Math.sqrt(-2 * Math.log(p));
+  // Abramowitz & Stegun 26.2.23, |error| < 4.5e-4: ample for a bracket
+  return t - (2.515517 + 0.802853 * t + 0.010328 * t * t) / (1 + 1.432788 * t + 0.189269 * t * t + 0.001308 * t * t * t);
 }
 
 function checkPoint(c: number): void {
