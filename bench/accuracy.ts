@@ -1,6 +1,6 @@
 /**
  * Writes docs/accuracy.md: the measured error of every engine against the arbitrary-precision
- * reference values of test/ref/ (mpmath at 40 digits, each value cross-checked by a second
+ * reference values of test/ref/ (mpmath at 50 digits, each value cross-checked by a second
  * method), by regime, with max and median absolute and relative error and the fraction of
  * cases where the true error exceeded the engine's own reported bound. Run `npm run accuracy`.
  */

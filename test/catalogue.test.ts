@@ -7,7 +7,7 @@
  *
  * The table of docs/errors-and-limits.md is rendered from this catalogue and compared with the
  * file, so the documentation cannot drift. After changing the catalogue, regenerate the table with
- *   UPDATE_DOCS=1 npx vitest run test/catalogue.test.ts
+ *   UPDATE_DOCS=1 npx vitest run --config test/vitest.config.ts test/catalogue.test.ts
  */
 import { describe, expect, it } from 'vitest';
 import { mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';

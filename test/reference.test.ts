@@ -1,6 +1,6 @@
 /**
  * Every engine against the arbitrary-precision reference values of test/ref/reference.json
- * (mpmath at 40 digits, each value cross-checked by a second method; see test/ref/README.md).
+ * (mpmath at 50 digits, each value cross-checked by a second method; see test/ref/README.md).
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';

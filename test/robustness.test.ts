@@ -11,7 +11,7 @@
  * The measurements behind CONDITION_LIMIT (src/model/design.ts) are the table of
  * docs/errors-and-limits.md, which this file renders and compares (condition numbers to 1%, errors
  * to within a factor 30, outcome exactly). Regenerate with
- *   UPDATE_DOCS=1 npx vitest run test/robustness.test.ts
+ *   UPDATE_DOCS=1 npx vitest run --config test/vitest.config.ts test/robustness.test.ts
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync, writeFileSync } from 'node:fs';

@@ -45,7 +45,7 @@ beforeAll(async () => {
   }
   out = mkdtempSync(join(tmpdir(), 'exact-dw-page-'));
   profile = mkdtempSync(join(tmpdir(), 'exact-dw-chromium-'));
-  await build({ configFile: join(root, 'vite.config.ts'), logLevel: 'silent', build: { outDir: out, emptyOutDir: true } });
+  await build({ configFile: join(root, 'src', 'web', 'vite.config.ts'), logLevel: 'silent', build: { outDir: out, emptyOutDir: true } });
   served = await startServer({ root: out, port: 0 });
   context = await chromium.launchPersistentContext(profile, {
     executablePath: CHROMIUM,
