@@ -494,3 +494,19 @@ describe('bad input: stable codes, messages that say what is wrong, hints with a
     expect((await run(tableCommand, '--n', '6-20', '--k', '1', '--force')).error?.code).toBe('OPTION_CONFLICT');
   });
 });
+
+describe('engine choice for bounds and tables (--method)', () => {
+  it('a table computed cell by cell with Imhof and with Pan agrees with the default column route to 1e-8 (three independent routes)', async () => {
+    const { boundsTable } = await import('../src/bounds/table.js');
+    const req = { n: [12, 20, 31], kPrime: [1, 3], alpha: [0.05, 0.01] };
+    const auto = boundsTable(req);
+    for (const method of ['imhof', 'pan'] as const) {
+      const other = boundsTable({ ...req, method });
+      expect(other.cells.length).toBe(auto.cells.length);
+      other.cells.forEach((c, i) => {
+        expect(Math.abs(c.dL - auto.cells[i].dL)).toBeLessThan(1e-8);
+        expect(Math.abs(c.dU - auto.cells[i].dU)).toBeLessThan(1e-8);
+      });
+    }
+  });
+});

@@ -5,7 +5,8 @@
  * (quantile.ts); along each column the solve for n starts from the values at the previous rows.
  */
 import { DwError } from '../errors.js';
-import { checkBoundsAlpha } from './bounds.js';
+import { bounds, checkBoundsAlpha } from './bounds.js';
+import type { MethodChoice } from '../core/types.js';
 import { boundQuantile } from './quantile.js';
 import { MAX_BOUNDS_N, lowerBoundIndices, upperBoundIndices } from './spectra.js';
 
@@ -43,6 +44,12 @@ export interface BoundsTableRequest {
   alpha: number[];
   /** Bounds for a model with an intercept (default true, the tables' case). */
   intercept?: boolean;
+  /**
+   * Engine: `auto` (default) solves whole columns of n with warm starts on the closed-form
+   * (Chebyshev-product) route; a named engine solves every cell through `bounds()` with that
+   * engine (slower; for cross-checks).
+   */
+  method?: MethodChoice;
 }
 
 /** One cell of the table. */
@@ -164,10 +171,18 @@ export function boundsTable(req: BoundsTableRequest): BoundsTable {
   const values = new Map<string, { dL: number; dU: number }>();
   let evaluations = 0;
   let skipped = 0;
+  const method = req.method ?? 'auto';
   for (const a of alpha) {
     for (const k of kPrime) {
       const columnN = n.filter((v) => v >= minN(k));
       skipped += n.length - columnN.length;
+      if (method !== 'auto') {
+        for (const v of columnN) {
+          const b = bounds(v, k, a, { intercept, method });
+          values.set(`${a}|${v}|${k}`, { dL: b.dL, dU: b.dU });
+        }
+        continue;
+      }
       const dL = solveColumn(columnN, (v) => lowerBoundIndices(v, k, intercept), a);
       const dU = solveColumn(columnN, (v) => upperBoundIndices(v, k, intercept), a);
       evaluations += dL.evaluations + dU.evaluations;

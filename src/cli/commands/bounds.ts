@@ -3,7 +3,7 @@ import { DwError } from '../../errors.js';
 import { bounds } from '../../bounds/bounds.js';
 import { boundsZone } from '../../bounds/zone.js';
 import type { Alternative } from '../../inference/dw-test.js';
-import { choiceOption, integerOption, numberOption } from '../args.js';
+import { choiceOption, integerOption, methodOption, numberOption } from '../args.js';
 import type { Command } from './command.js';
 
 export const boundsCommand: Command = {
@@ -28,6 +28,7 @@ export const boundsCommand: Command = {
     d: { type: 'string', value: 'D', help: 'an observed Durbin-Watson statistic: also report its zone' },
     alternative: { type: 'string', value: 'ALT', help: 'with --d: positive (default), negative or two-sided' },
     digits: { type: 'string', value: 'D', help: 'decimals in text output (default 3, as printed tables; at most 9)' },
+    method: { type: 'string', value: 'ENGINE', help: 'auto (default: closed-form route), imhof or pan (eigenfree needs a design, not bounds)' },
     format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
   },
   run({ values, io }) {
@@ -44,7 +45,8 @@ export const boundsCommand: Command = {
       throw new DwError('OPTION_CONFLICT', '--alternative only applies together with --d.', 'Give the observed d with --d, or leave out --alternative.');
     }
     const alternative = choiceOption(values, 'alternative', ['positive', 'negative', 'two-sided'] as const, 'positive') as Alternative;
-    const b = bounds(n, kPrime, alpha, { intercept });
+    const method = methodOption(values);
+    const b = bounds(n, kPrime, alpha, { intercept, method });
     const d = values.d === undefined ? undefined : (numberOption(values, 'd') as number);
     const zone = d === undefined ? null
       : alternative === 'two-sided'

@@ -4,7 +4,7 @@ import { boundsTable } from '../../bounds/table.js';
 import { renderBoundsTable, type TableFormat } from '../../bounds/render.js';
 import { parseIntegerList, parseLevelList } from '../../bounds/ranges.js';
 import { MAX_BOUNDS_N } from '../../bounds/spectra.js';
-import { choiceOption, integerOption, required } from '../args.js';
+import { choiceOption, integerOption, methodOption, required } from '../args.js';
 import type { Command } from './command.js';
 
 export const tableCommand: Command = {
@@ -26,6 +26,7 @@ export const tableCommand: Command = {
     k: { type: 'string', value: 'LIST', help: "k': regressors other than the intercept, e.g. 1-20" },
     alpha: { type: 'string', value: 'LIST', help: 'one-sided levels, e.g. 0.05,0.01 (default 0.05)' },
     'no-intercept': { type: 'boolean', help: 'bounds for models without intercept' },
+    method: { type: 'string', value: 'ENGINE', help: 'auto (default: closed-form route), imhof or pan (eigenfree needs a design, not bounds)' },
     format: { type: 'string', value: 'FMT', help: 'text (default), csv, markdown or json' },
     digits: { type: 'string', value: 'D', help: 'decimals of d_L and d_U (default 3, as printed tables; at most 9)' },
     out: { type: 'string', value: 'FILE', help: 'write the table to FILE instead of the screen' },
@@ -44,7 +45,7 @@ export const tableCommand: Command = {
     if (values.force && values.out === undefined) {
       throw new DwError('OPTION_CONFLICT', '--force only applies together with --out.', 'Give the file to write with --out FILE.');
     }
-    const table = boundsTable({ n, kPrime, alpha, intercept: !values['no-intercept'] });
+    const table = boundsTable({ n, kPrime, alpha, intercept: !values['no-intercept'], method: methodOption(values) });
     const text = renderBoundsTable(table, format, digits);
     if (typeof values.out === 'string') {
       io.writeText(values.out, text, values.force === true);
