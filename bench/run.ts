@@ -26,24 +26,13 @@ import { buildDesign, factorDesign } from '../src/model/design.js';
 import { exactDwTest } from '../src/inference/dw-test.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { designSource } from '../src/distribution/source.js';
-import type { BandMatrix, ColumnBasis } from '../src/core/types.js';
+import { seededNormal } from '../test/helpers/reference.js';
 
 const argv = process.argv.slice(2);
 const QUICK = argv.includes('--quick');
 
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 function normal(seed: number): () => number {
-  const u = seeded(seed);
-  return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
+  return seededNormal(seed);
 }
 
 /** A k = 5 design: intercept, trend and three seeded regressors. */

@@ -5,23 +5,14 @@
  * against the closed-form spectrum of A (lambda_j = 2 - 2 cos(pi j / n), DCT-II eigenvectors).
  */
 import { describe, expect, it } from 'vitest';
-import { Matrix, QrDecomposition, EigenvalueDecomposition } from 'ml-matrix';
-import { bandToDense, differenceMatrix, differencePairs } from '../src/core/difference.js';
+import { EigenvalueDecomposition } from 'ml-matrix';
+import { mlMatrixProjection, seededCentred } from './helpers/reference.js';
+import { differenceMatrix, differencePairs } from '../src/core/difference.js';
 import type { BandMatrix, ColumnBasis } from '../src/core/types.js';
 import { eigenfreeForm } from '../src/engines/eigenfree.js';
 import { isDwError } from '../src/errors.js';
 
-/** mulberry32: a small seeded generator, deterministic across runs. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296 - 0.5;
-  };
-}
+const seeded = seededCentred;
 
 /** Design with intercept, trend, and k - 2 seeded random columns (rows as arrays). */
 function design(n: number, k: number, seed: number): number[][] {
@@ -35,22 +26,9 @@ function design(n: number, k: number, seed: number): number[][] {
  * col(X) and whose last n - k span the complement.
  */
 function reference(a: BandMatrix, x: number[][]): { basis: ColumnBasis; nu: Float64Array } {
-  const n = x.length;
-  const k = x[0].length;
-  const r = seeded(99);
-  const full = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) full.set(i, j, j < k ? x[i][j] : r());
-  const u = new QrDecomposition(full).orthogonalMatrix;
-  const q = new Float64Array(n * k);
-  for (let j = 0; j < k; j++) for (let i = 0; i < n; i++) q[j * n + i] = u.get(i, j);
-  const z = u.subMatrix(0, n - 1, k, n - 1);
-  const dense = bandToDense(a);
-  const am = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) am.set(i, j, dense[i * n + j]);
-  const zaz = z.transpose().mmul(am).mmul(z);
-  const sym = zaz.add(zaz.transpose()).mul(0.5);
-  const nu = Float64Array.from(new EigenvalueDecomposition(sym, { assumeSymmetric: true }).realEigenvalues).sort();
-  return { basis: { n, k, q }, nu };
+  const { basis, zaz } = mlMatrixProjection(a, x, 99);
+  const nu = Float64Array.from(new EigenvalueDecomposition(zaz, { assumeSymmetric: true }).realEigenvalues).sort();
+  return { basis, nu };
 }
 
 /** theta and log rho from explicit weights (Imhof 1961). */

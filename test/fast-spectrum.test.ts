@@ -6,25 +6,17 @@
  * spectrum without those eigenvalues (Durbin & Watson 1950; METHODS.md section 2).
  */
 import { describe, expect, it } from 'vitest';
-import { Matrix, QrDecomposition, EigenvalueDecomposition } from 'ml-matrix';
+import { Matrix, EigenvalueDecomposition } from 'ml-matrix';
+import { mlMatrixProjection, seededCentred } from './helpers/reference.js';
 import numericModule from 'numeric';
-import { bandToDense, differenceMatrix, differencePairs } from '../src/core/difference.js';
+import { differenceMatrix, differencePairs } from '../src/core/difference.js';
 import type { BandMatrix, ColumnBasis } from '../src/core/types.js';
 import { FAST_SPECTRUM_MAX_N, fastSpectrum, operatorChains } from '../src/core/fast-spectrum.js';
 import { isDwError } from '../src/errors.js';
 
 const numeric = numericModule as unknown as { eig(a: number[][]): { lambda: { x: number[]; y?: number[] } } };
 
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296 - 0.5;
-  };
-}
+const seeded = seededCentred;
 
 /** Columns: optional intercept, optional trend, then seeded random columns, k in all. */
 function design(n: number, k: number, seed: number, intercept = true): number[][] {
@@ -38,20 +30,7 @@ function design(n: number, k: number, seed: number, intercept = true): number[][
 
 /** Q and Z'AZ (dense, symmetrised) by ml-matrix's QR of [X | R]. */
 function projected(a: BandMatrix, x: number[][]): { basis: ColumnBasis; zaz: Matrix } {
-  const n = x.length;
-  const k = x[0].length;
-  const r = seeded(77);
-  const full = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) full.set(i, j, j < k ? x[i][j] : r());
-  const u = new QrDecomposition(full).orthogonalMatrix;
-  const q = new Float64Array(n * k);
-  for (let j = 0; j < k; j++) for (let i = 0; i < n; i++) q[j * n + i] = u.get(i, j);
-  const z = u.subMatrix(0, n - 1, k, n - 1);
-  const dense = bandToDense(a);
-  const am = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) am.set(i, j, dense[i * n + j]);
-  const zaz = z.transpose().mmul(am).mmul(z);
-  return { basis: { n, k, q }, zaz: zaz.add(zaz.transpose()).mul(0.5) };
+  return mlMatrixProjection(a, x, 77);
 }
 
 function mlMatrixSpectrum(zaz: Matrix): Float64Array {

@@ -5,6 +5,8 @@
 import jstatModule from 'jstat';
 import numericModule from 'numeric';
 import { Matrix, EigenvalueDecomposition, QrDecomposition, solve } from 'ml-matrix';
+import { bandToDense } from '../../src/core/difference.js';
+import type { BandMatrix, ColumnBasis } from '../../src/core/types.js';
 
 // jstat ships CommonJS with its namespace as the default export
 export const jStat = (jstatModule as unknown as { jStat?: any }).jStat ?? (jstatModule as any);
@@ -61,4 +63,32 @@ export function referenceSpectrum(xRows: number[][], aDense: ArrayLike<number>, 
   const ZAZ = Z.transpose().mmul(A).mmul(Z);
   const S = ZAZ.add(ZAZ.transpose()).mul(0.5);
   return Float64Array.from(new EigenvalueDecomposition(S, { assumeSymmetric: true }).realEigenvalues.slice().sort((a, b) => a - b));
+}
+
+/** Seeded uniforms on [-1/2, 1/2) (mulberry32 shifted), for random design columns. */
+export function seededCentred(seed: number): () => number {
+  const u = seededRandom(seed);
+  return () => u() - 0.5;
+}
+
+/**
+ * Q (orthonormal basis of col(X)) and Z'AZ (dense, symmetrised), both by ml-matrix alone: the QR of
+ * [X | R], R seeded random, gives an orthogonal n x n matrix whose first k columns span col(X) and
+ * whose last n - k span the complement Z. X is given as rows.
+ */
+export function mlMatrixProjection(a: BandMatrix, x: number[][], seed: number): { basis: ColumnBasis; zaz: Matrix } {
+  const n = x.length;
+  const k = x[0].length;
+  const r = seededCentred(seed);
+  const full = new Matrix(n, n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) full.set(i, j, j < k ? x[i][j] : r());
+  const u = new QrDecomposition(full).orthogonalMatrix;
+  const q = new Float64Array(n * k);
+  for (let j = 0; j < k; j++) for (let i = 0; i < n; i++) q[j * n + i] = u.get(i, j);
+  const z = u.subMatrix(0, n - 1, k, n - 1);
+  const dense = bandToDense(a);
+  const am = new Matrix(n, n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) am.set(i, j, dense[i * n + j]);
+  const zaz = z.transpose().mmul(am).mmul(z);
+  return { basis: { n, k, q }, zaz: zaz.add(zaz.transpose()).mul(0.5) };
 }
