@@ -231,11 +231,11 @@ function tridiagonalLogDet(s0: Float64Array, s1: Float64Array, q: Float64Array, 
   const acc = new Float64Array(2);
   const yr = new Float64Array(k);
   const yi = new Float64Array(k);
+  const prod = new PivotProduct();
   return (ar, ai, br, bi, wantArg, out) => {
     gr.fill(0);
     gi.fill(0);
-    // running product of pivots, normalised now and then: modulus in logAbs, turns in wind
-    let pr = 1, pim = 0, logAbs = 0, wind = 0;
+    prod.reset();
     let dpr = 1, dpi = 0;
     for (let t = 0; t < n; t++) {
       const st = s0[t];
@@ -258,24 +258,12 @@ function tridiagonalLogDet(s0: Float64Array, s1: Float64Array, q: Float64Array, 
         for (let c = 0; c < k; c++) { yr[c] = q[c * n]; yi[c] = 0; }
       }
       accumulateG(yr, yi, dr, di, k, gr, gi);
-      // product of pivots
-      const npr = pr * dr - pim * di;
-      const npi = pr * di + pim * dr;
-      if (wantArg) {
-        if (pim >= 0) { if (npi < 0 && di > 0) wind++; } else if (npi >= 0 && di < 0) wind--;
-      }
-      pr = npr; pim = npi;
-      const mag = Math.abs(pr) + Math.abs(pim);
-      if (mag > 1e100 || mag < 1e-100) {
-        const h = Math.hypot(pr, pim);
-        logAbs += Math.log(h);
-        pr /= h; pim /= h;
-      }
+      prod.push(dr, di, wantArg);
       dpr = dr; dpi = di;
     }
     small(gr, gi, acc);
-    out[0] = logAbs + Math.log(Math.hypot(pr, pim)) + acc[0];
-    out[1] = wantArg ? principalArg(pr, pim) + 2 * Math.PI * wind + acc[1] : 0;
+    out[0] = prod.logModulus() + acc[0];
+    out[1] = wantArg ? prod.argument() + acc[1] : 0;
   };
 }
 
@@ -297,10 +285,11 @@ function bandLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): L
   const wI = new Float64Array(p);
   const rowR = new Float64Array(k);
   const rowI = new Float64Array(k);
+  const prod = new PivotProduct();
   return (ar, ai, br, bi, wantArg, out) => {
     gr.fill(0);
     gi.fill(0);
-    let pr = 1, pim = 0, logAbs = 0, wind = 0;
+    prod.reset();
     for (let t = 0; t < n; t++) {
       const j0 = Math.max(0, t - p);
       // W(t, col) = B(t, col) - sum_{s < col} W(t, s) L(col, s);  L(t, col) = W(t, col) / D(col)
@@ -340,23 +329,46 @@ function bandLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): L
       yR.set(rowR, t * k);
       yI.set(rowI, t * k);
       accumulateG(rowR, rowI, dr, di, k, gr, gi);
-      const npr = pr * dr - pim * di;
-      const npi = pr * di + pim * dr;
-      if (wantArg) {
-        if (pim >= 0) { if (npi < 0 && di > 0) wind++; } else if (npi >= 0 && di < 0) wind--;
-      }
-      pr = npr; pim = npi;
-      const mag = Math.abs(pr) + Math.abs(pim);
-      if (mag > 1e100 || mag < 1e-100) {
-        const h = Math.hypot(pr, pim);
-        logAbs += Math.log(h);
-        pr /= h; pim /= h;
-      }
+      prod.push(dr, di, wantArg);
     }
     small(gr, gi, acc);
-    out[0] = logAbs + Math.log(Math.hypot(pr, pim)) + acc[0];
-    out[1] = wantArg ? principalArg(pr, pim) + 2 * Math.PI * wind + acc[1] : 0;
+    out[0] = prod.logModulus() + acc[0];
+    out[1] = wantArg ? prod.argument() + acc[1] : 0;
   };
+}
+
+/**
+ * The running product of the LDL' pivots, normalised now and then so that it neither over- nor
+ * underflows: its modulus is exp(logAbs) |p| and its continuous argument arg(p) + 2 pi wind, the
+ * turns counted as the product crosses the negative real axis (each pivot has |arg| < pi/2).
+ */
+class PivotProduct {
+  private pr = 1;
+  private pim = 0;
+  private logAbs = 0;
+  private wind = 0;
+
+  reset(): void { this.pr = 1; this.pim = 0; this.logAbs = 0; this.wind = 0; }
+
+  push(dr: number, di: number, countTurns: boolean): void {
+    const { pr, pim } = this;
+    const npr = pr * dr - pim * di;
+    const npi = pr * di + pim * dr;
+    if (countTurns) {
+      if (pim >= 0) { if (npi < 0 && di > 0) this.wind++; } else if (npi >= 0 && di < 0) this.wind--;
+    }
+    this.pr = npr; this.pim = npi;
+    const mag = Math.abs(npr) + Math.abs(npi);
+    if (mag > 1e100 || mag < 1e-100) {
+      const h = Math.hypot(npr, npi);
+      this.logAbs += Math.log(h);
+      this.pr = npr / h; this.pim = npi / h;
+    }
+  }
+
+  logModulus(): number { return this.logAbs + Math.log(Math.hypot(this.pr, this.pim)); }
+
+  argument(): number { return principalArg(this.pr, this.pim) + 2 * Math.PI * this.wind; }
 }
 
 /**
