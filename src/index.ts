@@ -25,7 +25,13 @@ export {
 } from './inference/dw-test.js';
 export * from './report/index.js';
 export { VERSION } from './version.js';
-export { exactPower, powerForProblem, alternativeTail, POWER_SIZE_LIMIT, type ExactPower, type ExactPowerInput, type PowerOptions, type PowerPoint } from './power/exact-power.js';
+export {
+  exactPower, powerForProblem, alternativeTail, autoPowerRoute, POWER_SIZE_LIMIT, POWER_DENSE_MAX_N,
+  type ExactPower, type ExactPowerInput, type PowerOptions, type PowerPoint, type PowerRoute,
+} from './power/exact-power.js';
+export {
+  alternativeStructure, alternativeForm, eigenfreeAlternativeTail, chernoffTail, type AlternativeForm, type AlternativeStructure,
+} from './power/eigenfree-power.js';
 export { powerWeights, errorCovariance, type ErrorProcess } from './power/weights.js';
 export { detectLaggedDependent } from './dynamic/lagged-dependent.js';
 export {
@@ -37,5 +43,5 @@ export { contourTail } from './engines/saddle-contour.js';
 export { panTail, panApplicable, type PanOptions } from './engines/pan.js';
 export { eigenfreeForm, type EigenfreeForm } from './engines/eigenfree.js';
 export { fastSpectrum } from './core/fast-spectrum.js';
-export { checkSize, memoryEstimate } from './limits.js';
+export { checkSize, memoryEstimate, checkPowerSize, POWER_MAX_N } from './limits.js';
 export * from './bounds/index.js';

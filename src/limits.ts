@@ -28,6 +28,13 @@ export const STRUCTURED_SPECTRUM_MAX_N = FAST_SPECTRUM_MAX_N;
 export const PAN_MAX_M = 400;
 /** Largest n for the eigen-free engine (time: about 8 s per probability at n = 10^5, k = 3). */
 export const EIGENFREE_MAX_N = 100000;
+/**
+ * Largest n for exact power against AR(1) errors: the eigen-free route of src/power/eigenfree-power.ts
+ * takes every n up to the eigen-free engine's limit (its dense route stops at POWER_SIZE_LIMIT in
+ * src/power/exact-power.ts). Measured: one probability under the alternative took about 6.5 s at
+ * n = 10^5, k = 3, when it needs Imhof's integral, and about 1.5 s when Chernoff's bound settles it.
+ */
+export const POWER_MAX_N = EIGENFREE_MAX_N;
 /** Largest memory any engine may plan to use for one problem (bytes): 1 GiB. */
 export const MEMORY_BUDGET_BYTES = 2 ** 30;
 
@@ -125,5 +132,31 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
       return;
     default:
       throw new DwError('OPTION_VALUE', `Unknown engine '${String(engine)}'.`, 'Use auto, imhof, pan or eigenfree.');
+  }
+}
+
+/**
+ * Check that exact power can be computed for n observations, k columns and a statistic of the given
+ * lag: n <= {@link POWER_MAX_N}, and the eigen-free route's memory (the band factors of B and the
+ * three n x k blocks it carries, complex and real: about 8 n (16 k + 4 lag + 24) bytes) within
+ * {@link MEMORY_BUDGET_BYTES}.
+ *
+ * @throws DwError SIZE_LIMIT
+ * @example
+ * ```ts
+ * checkPowerSize(100000, 3, 1);   // fine
+ * checkPowerSize(100001, 3, 1);   // throws SIZE_LIMIT
+ * ```
+ */
+export function checkPowerSize(n: number, k: number, lag = 1): void {
+  if (n > POWER_MAX_N) {
+    throw new DwError('SIZE_LIMIT', `Exact power is limited to n = ${POWER_MAX_N} observations (n = ${n} here).`,
+      'Use a shorter span of the series; at this length the power against any rho of practical size is 1 to many digits.');
+  }
+  const bytes = 8 * n * (16 * k + 4 * lag + 24);
+  if (bytes > MEMORY_BUDGET_BYTES) {
+    throw new DwError('SIZE_LIMIT',
+      `Exact power would need about ${(bytes / 2 ** 20).toFixed(0)} MiB for n = ${n}, k = ${k} (budget ${MEMORY_BUDGET_BYTES / 2 ** 20} MiB).`,
+      'Use fewer regressors or fewer observations.');
   }
 }

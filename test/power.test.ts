@@ -255,8 +255,8 @@ describe('bad input', () => {
   it.each([[1], [-1], [1.5], [NaN]])('rho = %s is RHO_OUT_OF_RANGE', (rho) => {
     expect(() => exactPower({ x, rho: [rho] })).toThrow(expect.objectContaining({ code: 'RHO_OUT_OF_RANGE' }));
   });
-  it('n above the dense route\'s limit is SIZE_LIMIT (before any O(n^3) work)', () => {
-    expect(() => exactPower({ x: { t: trend(601) }, rho: [0.5] })).toThrow(expect.objectContaining({ code: 'SIZE_LIMIT' }));
+  it('the dense route forced above its limit is SIZE_LIMIT (before any O(n^3) work)', () => {
+    expect(() => exactPower({ x: { t: trend(601) }, rho: [0.5], route: 'dense' })).toThrow(expect.objectContaining({ code: 'SIZE_LIMIT' }));
   });
   it('alpha outside (0, 1), a target not above alpha, an unknown alternative', () => {
     expect(() => exactPower({ x, rho: [0.5], alpha: 0 })).toThrow(expect.objectContaining({ code: 'ALPHA_OUT_OF_RANGE' }));

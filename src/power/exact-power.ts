@@ -12,11 +12,22 @@
  * P(d >= c | rho) computed directly (the weights negated); the two-sided test adds both tails at
  * alpha / 2.
  *
- * Route and limits: dense, O(n^2 k + m^3) per rho (measured on this project's 2-core machine: about
- * 25 ms at n = 100 and 0.8 s at n = 400; the search for the target adds 10 to 25 evaluations). For large
- * n the eigen-free route of METHODS.md section 5 applies unchanged, because S_rho^-1 is tridiagonal:
- * the log-determinant of I - iu S^(1/2) M (A - cI) M S^(1/2) on the complement can be formed from
- * banded factorisations in O(nk). Power through src/engines/eigenfree.ts is not wired here yet.
+ * Two routes (the result's `route` and `notes` say which answered):
+ *   - dense (weights.ts): the weights from an eigen-decomposition, O(n^2 k + m^3) per rho, exact and
+ *     fast for small n; limited to n <= POWER_SIZE_LIMIT;
+ *   - eigen-free (eigenfree-power.ts): log det(I - iu L'CL) from banded factorisations, because
+ *     S_rho^-1 is tridiagonal (METHODS.md sections 5 and 6), O(n k (k + lag)) per integrand
+ *     evaluation; every n up to POWER_MAX_N (src/limits.ts). A probability that Chernoff's bound
+ *     puts within a tenth of the tolerance of 0 or 1 is settled by the bound.
+ * `auto` takes the dense route up to n = max(POWER_DENSE_MAX_N, 25 k) (at most POWER_SIZE_LIMIT) and
+ * the eigen-free one above. Measured on this project's 2-core machine (one power value, the best of
+ * three runs, lag 1 unless stated), dense vs eigen-free: k = 3: n = 50 1.1 vs 2.9 ms, n = 100 10 vs
+ * 2.4 ms, n = 300 89 vs 7.8 ms; k = 3, lag 4: n = 100 5.8 vs 13 ms, n = 300 93 vs 24 ms; k = 7:
+ * n = 150 18 vs 21 ms, n = 300 109 vs 49 ms; k = 16: n = 300 89 vs 200 ms, n = 400 209 vs 200 ms,
+ * n = 600 820 vs 330 ms. The eigen-free cost grows like n k^2, the dense one like n^3, and they
+ * cross near n = 25 k; below n = 100 both take milliseconds and the dense route, which has the
+ * weights themselves, is kept. The critical value comes from the null distribution, which
+ * itself uses the eigen-free null engine above n = 1000 (src/engines/choose.ts).
  */
 import { DwError } from '../errors.js';
 import type { Tail } from '../core/types.js';
@@ -26,10 +37,45 @@ import type { RegressorInput } from '../model/design.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from '../inference/problem.js';
 import { checkAlpha, rowCount, type Alternative, type PowerSummary } from '../inference/dw-test.js';
 import { checkRho, powerContext, rhoFactor, weightsAt, type ErrorProcess, type PowerContext } from './weights.js';
+import { alternativeStructure, eigenfreeAlternativeTail, type AlternativeStructure } from './eigenfree-power.js';
+import { columnBasis } from '../core/qr.js';
+import { checkPowerSize, POWER_MAX_N } from '../limits.js';
 
-/** Largest n for the dense power route (each rho costs O(n^3): about 3 s per rho at n = 600). */
+/**
+ * Largest n for the dense power route (each rho costs O(n^3): about 0.9 s per rho at n = 600,
+ * k = 3). Larger problems take the eigen-free route, up to POWER_MAX_N (src/limits.ts).
+ */
 export const POWER_SIZE_LIMIT = 600;
 
+/**
+ * `auto` takes the dense route for n <= max(POWER_DENSE_MAX_N, 25 k) (and n <= POWER_SIZE_LIMIT): there
+ * it is about as fast as the eigen-free route or faster and gives the weights themselves; above it the
+ * eigen-free route wins (measured, see the file comment).
+ */
+export const POWER_DENSE_MAX_N = 100;
+
+/**
+ * The route `auto` takes for n observations and k columns.
+ *
+ * @example
+ * ```ts
+ * autoPowerRoute(60, 3);    // 'dense'
+ * autoPowerRoute(5000, 3);  // 'eigenfree'
+ * ```
+ */
+export function autoPowerRoute(n: number, k: number): Exclude<PowerRoute, 'auto'> {
+  return n <= Math.min(POWER_SIZE_LIMIT, Math.max(POWER_DENSE_MAX_N, 25 * k)) ? 'dense' : 'eigenfree';
+}
+
+/**
+ * How the power is computed: `dense` (weights from an eigen-decomposition, n <= POWER_SIZE_LIMIT),
+ * `eigenfree` (banded factorisations, any n up to POWER_MAX_N), or `auto` (default: see
+ * {@link autoPowerRoute}).
+ */
+export type PowerRoute = 'auto' | 'dense' | 'eigenfree';
+
+/** Points below the first of TARGET_GRID for the eigen-free route (large n): 0.05 / 2^j, j = 7..1. */
+const FINE_GRID = [7, 6, 5, 4, 3, 2, 1].map((j) => 0.05 / 2 ** j);
 /** The grid on which the target power is first bracketed (then refined by Brent's method). */
 const TARGET_GRID = [0.05, 0.1, 0.15, 0.2, 0.25, 0.3, 0.35, 0.4, 0.45, 0.5, 0.55, 0.6, 0.65, 0.7, 0.75, 0.8, 0.85, 0.9, 0.95, 0.99];
 
@@ -66,6 +112,14 @@ export interface PowerOptions {
   process?: ErrorProcess;
   /** Target absolute error of each probability (default 1e-11). */
   tolerance?: number;
+  /** Route of the computation (default `auto`; see {@link PowerRoute}). */
+  route?: PowerRoute;
+  /**
+   * Search for the rho reaching the target power (default true). Each step of the search is one
+   * more power value: at n = 10^5 the search takes about a minute, so callers that only want the
+   * curve can skip it (rhoAtTarget is then null, and a note says it was not searched for).
+   */
+  searchTarget?: boolean;
   /**
    * Observation times, when the problem was prepared with them: the error process runs on the
    * integer time axis, so a gap of g periods between two observations gives correlation rho^g.
@@ -97,7 +151,9 @@ export interface ExactPower extends PowerSummary {
   gaps: boolean;
   /** Largest error bound over the curve. */
   errorBound: number;
-  /** Remarks worth showing with the curve (e.g. power that falls as |rho| grows). */
+  /** The route that computed the power (`dense` or `eigenfree`). */
+  route: Exclude<PowerRoute, 'auto'>;
+  /** Remarks worth showing with the curve (the route; power that falls as |rho| grows; ...). */
   notes: string[];
 }
 
@@ -158,10 +214,16 @@ export function powerForProblem(problem: DwProblem, options: PowerOptions): Exac
   for (const r of rhos) checkRho(r);
   const { design } = problem.factored;
   const { n, k } = design;
-  if (n > POWER_SIZE_LIMIT) {
-    throw new DwError('SIZE_LIMIT', `Exact power is computed by a dense O(n^3) route, limited to n <= ${POWER_SIZE_LIMIT} (n = ${n}).`,
-      'Use a shorter sample, or the p-value and critical value alone (they have no such limit).');
+  const requested = options.route ?? 'auto';
+  if (!['auto', 'dense', 'eigenfree'].includes(requested)) {
+    throw new DwError('OPTION_VALUE', `Unknown power route '${String(requested)}'.`, 'Use auto, dense or eigenfree.');
   }
+  checkPowerSize(n, k, problem.pairs.lag);
+  if (requested === 'dense' && n > POWER_SIZE_LIMIT) {
+    throw new DwError('SIZE_LIMIT', `The dense power route costs O(n^3) per rho and is limited to n <= ${POWER_SIZE_LIMIT} (n = ${n}).`,
+      `Use the eigen-free route (route auto or eigenfree), which takes n up to ${POWER_MAX_N}.`);
+  }
+  const route: Exclude<PowerRoute, 'auto'> = requested === 'auto' ? autoPowerRoute(n, k) : requested;
   const dist = problem.distribution;
   const tol = options.tolerance;
   let critical: number;
@@ -174,24 +236,43 @@ export function powerForProblem(problem: DwProblem, options: PowerOptions): Exac
     throw new DwError('LENGTH_MISMATCH', `The time column has ${options.times.length} values for ${n} observations.`,
       'Give one time value per row.');
   }
-  const ctx = powerContext(problem.factored.qr, problem.operator, problem.pairs.lag, options.times);
+  // tail(rho, c, tail): P(d <= c | rho) or P(d >= c | rho) by the chosen route
+  let tailAt: (rho: number, cs: { c: number; tail: Tail }[]) => { p: number; errorBound: number }[];
+  let bounded = 0;
+  if (route === 'dense') {
+    const ctx = powerContext(problem.factored.qr, problem.operator, problem.pairs.lag, options.times);
+    tailAt = (rho, cs) => {
+      const f = rhoFactor(ctx, rho, process);
+      return cs.map(({ c, tail }) => weightsTail(weightsAt(f, ctx.m, c), tail, tol));
+    };
+  } else {
+    const st: AlternativeStructure = alternativeStructure(columnBasis(problem.factored.qr), problem.operator, problem.pairs.lag, options.times, process);
+    tailAt = (rho, cs) => cs.map(({ c, tail }) => {
+      const r = eigenfreeAlternativeTail(st, c, rho, tail, { tolerance: tol });
+      if (r.via === 'chernoff') bounded++;
+      return r;
+    });
+  }
   const at = (rho: number): PowerPoint => {
-    const f = rhoFactor(ctx, rho, process);
     if (alternative === 'positive') {
-      const r = weightsTail(weightsAt(f, ctx.m, critical), 'lower', tol);
+      const [r] = tailAt(rho, [{ c: critical, tail: 'lower' }]);
       return { rho, power: r.p, errorBound: r.errorBound };
     }
     if (alternative === 'negative') {
-      const r = weightsTail(weightsAt(f, ctx.m, critical), 'upper', tol);
+      const [r] = tailAt(rho, [{ c: critical, tail: 'upper' }]);
       return { rho, power: r.p, errorBound: r.errorBound };
     }
-    const lo = weightsTail(weightsAt(f, ctx.m, critical), 'lower', tol);
-    const hi = weightsTail(weightsAt(f, ctx.m, criticalUpper as number), 'upper', tol);
+    const [lo, hi] = tailAt(rho, [{ c: critical, tail: 'lower' }, { c: criticalUpper as number, tail: 'upper' }]);
     return { rho, power: Math.min(1, lo.p + hi.p), errorBound: lo.errorBound + hi.errorBound };
   };
   const curve = rhos.map(at);
   const side = alternative === 'negative' ? -1 : 1;
-  const rhoAtTarget = findTarget((r) => at(side * r).power, alpha, target);
+  // at large n the power rises within |rho| of order 1/sqrt(n): the eigen-free route brackets the
+  // target on a finer grid below the first point of the dense route's grid (from 0.25 / sqrt(n) on;
+  // below that the bracket starts at rho = 0, where the power is alpha)
+  const grid = route === 'dense' ? TARGET_GRID : [...FINE_GRID.filter((r) => r >= 0.25 / Math.sqrt(n)), ...TARGET_GRID];
+  const searched = options.searchTarget ?? true;
+  const rhoAtTarget = searched ? findTarget((r) => at(side * r).power, alpha, target, grid) : null;
   let errorBound = 0;
   for (const p of curve) errorBound = Math.max(errorBound, p.errorBound);
   const notes: string[] = [];
@@ -203,7 +284,15 @@ export function powerForProblem(problem: DwProblem, options: PowerOptions): Exac
       break;
     }
   }
-  if (rhoAtTarget === null) notes.push(`Power ${target} is not reached for |rho| <= 0.99.`);
+  if (!searched) notes.push(`The rho at which power ${target} is reached was not searched for.`);
+  else if (rhoAtTarget === null) notes.push(`Power ${target} is not reached for |rho| <= 0.99.`);
+  notes.push(route === 'dense'
+    ? `Route: dense (the weights of the quadratic form from an eigen-decomposition for each rho; n = ${n}).`
+    : `Route: eigen-free (banded factorisations of the inverse error covariance, no eigenvalues; n = ${n}${requested === 'auto' ? ', too large for the dense route to be the faster' : ''}).`);
+  if (bounded > 0) {
+    const one = bounded === 1;
+    notes.push(`${bounded} ${one ? 'probability' : 'probabilities'} behind this result (curve and target search) ${one ? 'lies' : 'lie'} within ${(0.1 * (tol ?? 1e-11)).toExponential(0)} of 0 or 1 by Chernoff's bound and ${one ? 'was' : 'were'} settled by it (answer 0 or 1, the bound as its error).`);
+  }
   return {
     alpha,
     critical,
@@ -219,6 +308,7 @@ export function powerForProblem(problem: DwProblem, options: PowerOptions): Exac
     lag: problem.pairs.lag,
     gaps: problem.pairs.from.length < n - problem.pairs.lag,
     errorBound,
+    route,
     notes,
   };
 }
@@ -228,10 +318,10 @@ export function powerForProblem(problem: DwProblem, options: PowerOptions): Exac
  * Brent's method between it and the grid point before (power(0) = alpha < target). Null when no
  * grid point reaches the target.
  */
-function findTarget(power: (r: number) => number, alpha: number, target: number): number | null {
+function findTarget(power: (r: number) => number, alpha: number, target: number, grid: number[]): number | null {
   let prev = 0;
   let prevValue = alpha;
-  for (const r of TARGET_GRID) {
+  for (const r of grid) {
     const v = power(r);
     if (v >= target) {
       if (v === target) return r;

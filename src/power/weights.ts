@@ -16,8 +16,8 @@
  * S[i, j] = rho^(|t_i - t_j| / J) when J divides |t_i - t_j|, else 0.
  *
  * Cost per rho: O(n^2 k) for Z'SZ by two-sided Householder reflections, O(m^3) for the Cholesky
- * factor, the products and the eigenvalues. An eigen-free O(nk) route exists because S_rho^-1 is
- * tridiagonal (METHODS.md section 5); it is not used here (see exact-power.ts).
+ * factor, the products and the eigenvalues. The eigen-free route for large n, which needs no
+ * weights because S_rho^-1 is tridiagonal (METHODS.md section 5), is in eigenfree-power.ts.
  */
 import { DwError } from '../errors.js';
 import { bandToDense } from '../core/difference.js';

@@ -2,7 +2,7 @@
 import { DwError } from '../../errors.js';
 import type { Alternative } from '../../inference/dw-test.js';
 import { prepareProblem } from '../../inference/problem.js';
-import { powerForProblem } from '../../power/exact-power.js';
+import { powerForProblem, type PowerRoute } from '../../power/exact-power.js';
 import type { ErrorProcess } from '../../power/weights.js';
 import { choiceOption, numberOption, required } from '../args.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions } from '../shared.js';
@@ -68,13 +68,19 @@ function powerText(p: ReturnType<typeof powerForProblem>): string {
   ];
   for (const pt of p.curve) lines.push(`  ${pt.rho.toFixed(3).padStart(6)}   ${pt.power.toFixed(4)}`);
   lines.push('');
-  if (p.rhoAtTarget === null) {
+  const searched = !p.notes.some((n) => n.startsWith('The rho at which power'));
+  if (!searched) {
+    lines.push('  the rho reaching a target power was not searched for (--target none)');
+  } else if (p.rhoAtTarget === null) {
     lines.push(`  power ${p.target} is not reached for |rho| <= 0.99`);
   } else {
     lines.push(`  power ${p.target} is first reached at rho = ${p.rhoAtTarget.toFixed(4)}`);
   }
   lines.push(`  absolute error of each power below ${Math.max(p.errorBound, 1e-16).toExponential(1)}`);
-  for (const note of p.notes) if (!note.startsWith('Power ')) lines.push(`  note: ${note}`);
+  for (const note of p.notes) {
+    if (note.startsWith('Route: ')) lines.push(`  route: ${note.slice('Route: '.length)}`);
+    else if (!note.startsWith('Power ') && !note.startsWith('The rho at which power')) lines.push(`  note: ${note}`);
+  }
   return lines.join('\n') + '\n';
 }
 
@@ -86,14 +92,17 @@ export const powerCommand: Command = {
     'power(rho) = P(test rejects | errors follow a stationary AR(1) process with parameter rho),',
     'computed exactly for your X, with the exact critical value at alpha.',
     '--rho takes numbers and FROM:TO:STEP ranges, e.g. 0:0.9:0.1 (default ' + DEFAULT_RHO + ').',
+    'Small designs use the weights of the quadratic form (dense route); large ones, up to n = 100000,',
+    'banded factorisations without eigenvalues (eigen-free route); --route forces one.',
   ].join('\n'),
   options: {
     design: { type: 'string', value: 'FILE', help: 'CSV of regressors: a header row, every column a regressor' },
     rho: { type: 'string', value: 'LIST', help: `values of rho in (-1, 1), numbers or FROM:TO:STEP (default ${DEFAULT_RHO})` },
     alpha: { type: 'string', value: 'A', help: 'size of the test in (0, 1) (default 0.05)' },
-    target: { type: 'string', value: 'P', help: 'power to reach; the smallest rho reaching it is reported (default 0.8)' },
+    target: { type: 'string', value: 'P', help: 'power to reach; the smallest rho reaching it is reported (default 0.8; none skips the search)' },
     alternative: { type: 'string', value: 'ALT', help: 'positive (default), negative or two-sided' },
     process: { type: 'string', value: 'NAME', help: 'ar1 (default) or seasonal: u_t = rho u_{t-J} + e_t with J = --lag' },
+    route: { type: 'string', value: 'ROUTE', help: 'auto (default), dense (n <= 600) or eigenfree (n <= 100000)' },
     ...MODEL_OPTIONS,
     ...CSV_OPTIONS,
     format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
@@ -101,21 +110,23 @@ export const powerCommand: Command = {
   run({ values, io }) {
     const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');
     const alpha = numberOption(values, 'alpha', 0.05) as number;
-    const target = numberOption(values, 'target', 0.8) as number;
+    const searchTarget = values.target !== 'none';
+    const target = searchTarget ? numberOption(values, 'target', 0.8) as number : 0.8;
     const alternative = choiceOption<Alternative>(values, 'alternative', ['positive', 'negative', 'two-sided'], 'positive');
     const process = choiceOption<ErrorProcess>(values, 'process', ['ar1', 'seasonal'], 'ar1');
+    const route = choiceOption<PowerRoute>(values, 'route', ['auto', 'dense', 'eigenfree'], 'auto');
     const rho = parseRhoList(typeof values.rho === 'string' ? values.rho : DEFAULT_RHO);
     const table = loadTable(io, required(values, 'design', 'power'), values);
     const options = problemOptions(values, table);
     const problem = prepareProblem(designColumns(table, values), table.rows.length, options);
-    const p = powerForProblem(problem, { alpha, rho, target, alternative, process, times: options.times });
+    const p = powerForProblem(problem, { alpha, rho, target, alternative, process, route, searchTarget, times: options.times });
     if (format === 'json') {
       const out: Record<string, unknown> = {
         critical: p.critical,
         ...(p.criticalUpper !== null ? { criticalUpper: p.criticalUpper } : {}),
         power: p.curve.map(({ rho: r, power }) => ({ rho: r, power })),
         rhoAtTarget: p.rhoAtTarget,
-        target: p.target,
+        target: searchTarget ? p.target : null,
         alpha: p.alpha,
         n: p.n,
         k: p.k,
@@ -123,6 +134,7 @@ export const powerCommand: Command = {
         process: p.process,
         lag: p.lag,
         gaps: p.gaps,
+        route: p.route,
         errorBound: p.errorBound,
         notes: p.notes,
       };
