@@ -18,7 +18,7 @@ const ref = JSON.parse(readFileSync(`${root}test/ref/reference.json`, 'utf8')) a
 
 type Regime = 'small n (n <= 30)' | 'moderate n (n > 30)' | 'far lower tail (1e-15 <= P < 1e-6)' | 'far upper tail (1e-15 <= P < 1e-6)' | 'beyond the target (P < 1e-15)';
 const REGIMES: Regime[] = ['small n (n <= 30)', 'moderate n (n > 30)', 'far lower tail (1e-15 <= P < 1e-6)', 'far upper tail (1e-15 <= P < 1e-6)', 'beyond the target (P < 1e-15)'];
-const ENGINES = ['imhof', 'pan', 'eigenfree', 'auto'] as const;
+const ENGINES = ['imhof', 'pan', 'saddlepoint', 'eigenfree', 'auto'] as const;
 type Engine = (typeof ENGINES)[number];
 
 interface Row { abs: number[]; rel: number[]; violations: number; count: number; refused: number }
@@ -95,7 +95,7 @@ lines.push('');
 lines.push('Imhof and eigen-free give absolute accuracy: in the far tails their relative error grows as P shrinks');
 lines.push('(the probability comes out as 1/2 minus a number near 1/2). Pan computes the small tail directly and');
 lines.push('keeps relative accuracy there where it applies; the inversion on a line through the saddlepoint');
-lines.push('(src/engines/saddle-contour.ts, reported under the imhof label by `auto`) keeps it for any spectrum, ties');
+lines.push('(src/engines/saddle-contour.ts, engine `saddlepoint`) keeps it for any spectrum, ties');
 lines.push('included. In a small tail `auto` takes whichever of the two reports the smaller relative error.');
 lines.push('');
 lines.push('Target (issue: tails down to 1e-15 with relative error <= 1e-6): see the `auto` rows of the two far-tail');

@@ -8,7 +8,9 @@
  *   - structured spectrum (fast-spectrum.ts, difference operators): O(n k) memory, O(k n^2) time;
  *   - Imhof's integral on a spectrum: O(m) per integrand evaluation, a few hundred evaluations per
  *     probability: never the bottleneck, so Imhof's limit is that of the spectrum it needs;
- *   - Pan's formula: needs the spectrum, and its alternating sum loses accuracy beyond m = 400
+ *   - Pan's formula: needs the spectrum; in the body of the distribution its alternating sum loses
+ *     accuracy as m grows (forced use is limited to m = 400), while in the tails it stays accurate
+ *     at any m (src/engines/pan.ts), which is where `auto` uses it
  *     (measured in src/engines/pan.ts);
  *   - eigen-free Imhof (eigenfree.ts): O(n k) memory, O(n k (k + lag)) per evaluation.
  *
@@ -39,7 +41,7 @@ export const POWER_MAX_N = EIGENFREE_MAX_N;
 export const MEMORY_BUDGET_BYTES = 2 ** 30;
 
 /** Engines the limits speak of; `auto` means "any engine that fits". */
-export type SizedEngine = 'auto' | 'imhof' | 'pan' | 'eigenfree';
+export type SizedEngine = 'auto' | 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint';
 
 /** How the spectrum would be computed for the spectral engines (Imhof, Pan). */
 export interface SizeOptions {
@@ -63,6 +65,7 @@ export function memoryEstimate(n: number, k: number, engine: Exclude<SizedEngine
   switch (engine) {
     case 'imhof':
     case 'pan':
+    case 'saddlepoint':
       return spectral + 8 * n * (k + 4);
     case 'eigenfree':
       // complex band factors and the n x k basis and its transforms
@@ -106,12 +109,13 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
   };
   switch (engine) {
     case 'imhof':
+    case 'saddlepoint':
       if (n > spectrumLimit) {
         throw new DwError('SIZE_LIMIT',
           `The Imhof engine needs the spectrum, and ${routeName} is limited to n = ${spectrumLimit} (n = ${n} here).`,
           n <= EIGENFREE_MAX_N ? 'Use --method eigenfree (or auto), which needs no spectrum.' : tooBigForAll().hint);
       }
-      memory('imhof');
+      memory(engine);
       return;
     case 'pan':
       if (n - k > PAN_MAX_M) {

@@ -2,7 +2,8 @@
  * Engine agreement: on 200 seeded random designs (n from 6 to 400, k from 1 to 12, with and
  * without an intercept, c across the whole support, both tails) the Imhof, Pan and eigen-free
  * engines agree to 1e-9 wherever two of them apply. Three independent routes to one number:
- * Imhof's integral on the spectrum, Pan's finite-range sum on the spectrum, and Imhof's integral
+ * Imhof's integral on the spectrum, Pan's finite-range sum on the spectrum, the inversion on a line
+ * through the saddlepoint (on the spectrum, a different contour), and Imhof's integral
  * on a log-determinant that never sees an eigenvalue (on every fourth design, to keep the suite
  * quick). A failure prints the design's seed.
  */
@@ -13,6 +14,7 @@ import { fastSpectrum } from '../src/core/fast-spectrum.js';
 import { imhofTail, integrateImhof } from '../src/engines/imhof.js';
 import { panApplicable, panTail } from '../src/engines/pan.js';
 import { eigenfreeForm } from '../src/engines/eigenfree.js';
+import { contourTail } from '../src/engines/saddle-contour.js';
 import { buildDesign, factorDesign } from '../src/model/design.js';
 import { seededNormal, seededRandom } from './helpers/reference.js';
 
@@ -45,7 +47,7 @@ function setup(c: Case) {
   return { a, basis, nu: fastSpectrum(a, basis) };
 }
 
-describe('engine agreement on 200 seeded random designs', () => {
+describe('engine agreement on 200 seeded random designs (Imhof, Pan, saddlepoint; eigen-free on 50)', () => {
   const all = cases(200);
   it('covers the ranges the issue asks for', () => {
     expect(Math.min(...all.map((c) => c.n))).toBeLessThanOrEqual(8);
@@ -53,7 +55,7 @@ describe('engine agreement on 200 seeded random designs', () => {
     expect(new Set(all.map((c) => c.k)).size).toBeGreaterThanOrEqual(10);
     expect(all.some((c) => !c.intercept)).toBe(true);
   });
-  it('Imhof, Pan and eigen-free agree to 1e-9 wherever two apply', () => {
+  it('Imhof, Pan, saddlepoint and eigen-free agree to 1e-9 wherever two apply', () => {
     const failures: string[] = [];
     let comparisons = 0;
     let panUsed = 0;
@@ -74,6 +76,9 @@ describe('engine agreement on 200 seeded random designs', () => {
             eigenfreeUsed++;
             if (!(Math.abs(im.p - ef.p) <= 1e-9)) failures.push(`seed ${c.seed} (n ${c.n}, k ${c.k}, intercept ${c.intercept}) c ${x} ${tail}: imhof ${im.p} eigenfree ${ef.p}`);
           }
+          const sp = contourTail(nu, x, tail);
+          comparisons++;
+          if (!(Math.abs(im.p - sp.p) <= 1e-9)) failures.push(`seed ${c.seed} (n ${c.n}, k ${c.k}, intercept ${c.intercept}) c ${x} ${tail}: imhof ${im.p} saddlepoint ${sp.p}`);
           if (panApplicable(nu, x).ok) {
             const pa = panTail(nu, x, tail);
             panUsed++;

@@ -127,7 +127,7 @@ const C: Entry[] = [
   { input: 'an output file that already exists (written through io.writeText, which every writing command uses)', code: 'FILE_EXISTS', words: ['already exists', 'left as it is', '--force'],
     note: 'library only: the CLI options that write files are being added separately',
     lib: () => writeText(file('precious\n', 'existing.txt'), 'new text\n', false) },
-  { input: 'an output path that is a folder', code: 'FILE_UNREADABLE', words: ['is a folder'],
+  { input: 'an output path that is a folder', code: 'FILE_UNWRITABLE', words: ['is a folder'],
     note: 'library only, as above', lib: () => { const d = join(dir, `outdir${++fileNo}`); mkdirSync(d); writeText(d, 'x', true); } },
   // ---- columns and the design
   { input: 'a column name that is not in the file', code: 'COLUMN_UNKNOWN', words: ["no column 'sales'", "'year', 'y', 'x'"],

@@ -79,9 +79,8 @@ describe('the test function', () => {
     expect(b.pPositive).toBeCloseTo(a.pPositive, 10);
     expect(b.warnings).toEqual([]);
   });
-  it('warns when residuals are not orthogonal to the design', () => {
-    const r = exactDwTest({ residuals: y, x: { t } });
-    expect(r.warnings.join(' ')).toMatch(/not orthogonal/);
+  it('refuses residuals that are not orthogonal to the design (they come from another model)', () => {
+    expect(codeOf(() => exactDwTest({ residuals: y, x: { t } }))).toBe('RESIDUALS_NOT_FROM_DESIGN');
   });
   it('two-sided p is min(1, 2 min) and critical values sit at alpha/2', () => {
     const r = exactDwTest({ y, x: { t }, alternative: 'two-sided', alpha: 0.1 });

@@ -8,6 +8,7 @@
  * tables (Savin & White 1977, Econometrica 45, 1989-1996, for n = 6..200).
  */
 import { DwError } from '../errors.js';
+import { checkAlpha } from '../core/alternative.js';
 import type { MethodChoice } from '../core/types.js';
 import { DwNullDistribution } from '../distribution/null-distribution.js';
 import { boundQuantile } from './quantile.js';
@@ -48,21 +49,17 @@ export interface DwBounds {
 }
 
 /**
- * Check a significance level for the bounds: a number strictly between 0 and 1.
- * Throws `ALPHA_OUT_OF_RANGE` otherwise.
+ * Check a significance level for the bounds: the library's one level check, {@link checkAlpha}
+ * of src/core/alternative.ts, under its former name (kept so that existing callers still compile).
  *
+ * @deprecated Use `checkAlpha`.
  * @example
  * ```ts
  * checkBoundsAlpha(0.05); // fine
- * checkBoundsAlpha(5);    // throws: write 0.05 for 5%
+ * checkBoundsAlpha(5);    // throws ALPHA_OUT_OF_RANGE: write 0.05 for 5%
  * ```
  */
-export function checkBoundsAlpha(alpha: number): void {
-  if (!(typeof alpha === 'number' && alpha > 0 && alpha < 1)) {
-    throw new DwError('ALPHA_OUT_OF_RANGE', `The significance level ${alpha} is outside (0, 1).`,
-      'Give the one-sided level as a fraction, e.g. 0.05 for 5%.', { value: String(alpha) });
-  }
-}
+export const checkBoundsAlpha: (alpha: number) => void = checkAlpha;
 
 /**
  * Exact d_L and d_U for n observations, k' regressors other than the intercept and one-sided level
@@ -76,7 +73,7 @@ export function checkBoundsAlpha(alpha: number): void {
  */
 export function bounds(n: number, kPrime: number, alpha: number, options: BoundsOptions = {}): DwBounds {
   const intercept = options.intercept ?? true;
-  checkBoundsAlpha(alpha);
+  checkAlpha(alpha);
   const m = checkBoundsDesign(n, kPrime, intercept);
   const method = options.method ?? 'auto';
   let dL: number;

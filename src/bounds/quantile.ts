@@ -6,6 +6,8 @@
  */
 import { DwError } from '../errors.js';
 import type { Tail, TailProbability } from '../core/types.js';
+import { exactTail } from '../core/exact-tail.js';
+import { normalUpperQuantileStart } from '../core/normal-start.js';
 import { integrateImhof } from '../engines/imhof.js';
 import { tailProbability } from '../engines/choose.js';
 import { spectrumSource } from '../distribution/source.js';
@@ -50,8 +52,8 @@ export function boundTail(n: number, idx: BoundIndices, c: number, tail: Tail = 
   const lo = differenceEigenvalue(n, idx.first);
   const hi = differenceEigenvalue(n, idx.first + idx.m - 1);
   const below = tail === 'lower';
-  if (c <= lo) return exact(below ? 0 : 1);
-  if (c >= hi) return exact(below ? 1 : 0);
+  if (c <= lo) return exactTail(below ? 0 : 1, 'imhof');
+  if (c >= hi) return exactTail(below ? 1 : 0, 'imhof');
   const r = integrateImhof(cosineSpectrumForm(n, idx, c, below ? 1 : -1), { tolerance: Math.max(tolerance, 1e-13) });
   const relativeError = r.p > 0 ? r.errorBound / r.p : Infinity;
   if (relativeError <= RELATIVE_TARGET || r.errorBound <= tolerance) {
@@ -60,10 +62,6 @@ export function boundTail(n: number, idx: BoundIndices, c: number, tail: Tail = 
   const nu = new Float64Array(idx.m);
   for (let i = 0; i < idx.m; i++) nu[i] = differenceEigenvalue(n, idx.first + i);
   return tailProbability(spectrumSource(nu), c, tail, { method: 'auto', tolerance });
-}
-
-function exact(p: number): TailProbability {
-  return { p, errorBound: 0, relativeError: 0, method: 'imhof' };
 }
 
 /**
@@ -138,9 +136,7 @@ function momentGuess(n: number, idx: BoundIndices, alpha: number): { guess: numb
   let ss = 0;
   for (let i = 0; i < idx.m; i++) ss += (differenceEigenvalue(n, idx.first + i) - mean) ** 2;
   const sd = Math.sqrt((2 * ss) / (idx.m * (idx.m + 2)));
-  const p = Math.min(alpha, 1 - alpha);
-  const t = Math.sqrt(-2 * Math.log(p));
-  const z = t - (2.515517 + 0.802853 * t + 0.010328 * t * t) / (1 + 1.432788 * t + 0.189269 * t * t + 0.001308 * t * t * t);
+  const z = normalUpperQuantileStart(Math.min(alpha, 1 - alpha));
   const lo = differenceEigenvalue(n, idx.first);
   const hi = differenceEigenvalue(n, idx.first + idx.m - 1);
   const g = mean + (alpha < 0.5 ? -z : z) * sd;

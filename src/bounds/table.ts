@@ -5,7 +5,8 @@
  * (quantile.ts); along each column the solve for n starts from the values at the previous rows.
  */
 import { DwError } from '../errors.js';
-import { bounds, checkBoundsAlpha } from './bounds.js';
+import { bounds } from './bounds.js';
+import { checkAlpha } from '../core/alternative.js';
 import type { MethodChoice } from '../core/types.js';
 import { boundQuantile } from './quantile.js';
 import { MAX_BOUNDS_N, lowerBoundIndices, upperBoundIndices } from './spectra.js';
@@ -116,7 +117,7 @@ export function checkTableRequest(req: BoundsTableRequest): { n: number[]; kPrim
   if (req.n.length === 0) throw new DwError('N_INVALID', 'The table has no value of n.', 'Give sample sizes, e.g. 6-200.');
   if (req.kPrime.length === 0) throw new DwError('K_INVALID', "The table has no value of k'.", "Give numbers of regressors, e.g. 1-20.");
   if (req.alpha.length === 0) throw new DwError('ALPHA_OUT_OF_RANGE', 'The table has no significance level.', 'Give levels, e.g. 0.05,0.01.');
-  for (const a of req.alpha) checkBoundsAlpha(a);
+  for (const a of req.alpha) checkAlpha(a);
   for (const k of req.kPrime) {
     if (!(Number.isInteger(k) && k >= 0)) {
       throw new DwError('K_INVALID', `k' must be a whole number of at least 0 (got ${k}).`, "k' counts the regressors other than the intercept.", { value: String(k) });

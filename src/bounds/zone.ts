@@ -12,8 +12,10 @@
  */
 import { DwError } from '../errors.js';
 import type { MethodChoice } from '../core/types.js';
-import type { Alternative, BoundsZone } from '../inference/dw-test.js';
-import { bounds, checkBoundsAlpha } from './bounds.js';
+import type { BoundsZone } from '../core/result-types.js';
+import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
+import { SENTENCE_STYLE, formatProbability } from '../core/format-number.js';
+import { bounds } from './bounds.js';
 
 /** Options of {@link boundsZone}. */
 export interface BoundsZoneOptions {
@@ -23,6 +25,8 @@ export interface BoundsZoneOptions {
   method?: MethodChoice;
   /** Bounds already computed at the level `alpha` (or `alpha / 2` two-sided), to skip the computation. */
   known?: { dL: number; dU: number };
+  /** Absolute error bound of `exactP` (so that a p clamped to 0 prints as "< bound", not "0"). */
+  exactPErrorBound?: number;
 }
 
 /**
@@ -50,10 +54,8 @@ export function boundsZone(
   if (!(typeof d === 'number' && Number.isFinite(d) && d >= 0 && d <= 4)) {
     throw new DwError('D_OUT_OF_RANGE', `d = ${d} is outside the possible range [0, 4].`, 'Give the Durbin-Watson statistic of your regression.', { value: String(d) });
   }
-  if (!['positive', 'negative', 'two-sided'].includes(alternative)) {
-    throw new DwError('OPTION_VALUE', `Unknown alternative '${alternative}'.`, 'Use positive, negative or two-sided.');
-  }
-  checkBoundsAlpha(alpha);
+  checkAlternative(alternative);
+  checkAlpha(alpha);
   if (exactP !== null && !(typeof exactP === 'number' && exactP >= 0 && exactP <= 1)) {
     throw new DwError('PROBABILITY_OUT_OF_RANGE', `The exact p-value ${exactP} is outside [0, 1].`, 'Pass the p-value of the exact test, or null.', { value: String(exactP) });
   }
@@ -61,7 +63,7 @@ export function boundsZone(
   const intercept = options.intercept ?? true;
   const { dL, dU } = options.known ?? bounds(n, kPrime, level, { intercept, method: options.method });
   const zone = zoneOf(d, dL, dU);
-  return { kPrime, level, dL, dU, zone, resolution: resolve(d, dL, dU, zone, alpha, alternative, exactP, intercept) };
+  return { kPrime, level, dL, dU, zone, resolution: resolve(d, dL, dU, zone, alpha, alternative, exactP, intercept, options.exactPErrorBound ?? 0) };
 }
 
 /**
@@ -84,13 +86,13 @@ export function zoneOf(d: number, dL: number, dU: number): BoundsZone['zone'] {
   return 'no-evidence';
 }
 
-function resolve(d: number, dL: number, dU: number, zone: BoundsZone['zone'], alpha: number, alt: Alternative, p: number | null, intercept: boolean): string {
+function resolve(d: number, dL: number, dU: number, zone: BoundsZone['zone'], alpha: number, alt: Alternative, p: number | null, intercept: boolean, errorBound: number): string {
   const [fd, fL, fU, fL4, fU4] = distinct([d, dL, dU, 4 - dL, 4 - dU]);
   const at = alt === 'two-sided'
     ? `at ${pct(alpha)} (two-sided, bounds at ${pct(alpha / 2)} in each tail)`
     : `at ${pct(alpha)} (one-sided, against ${alt} autocorrelation)`;
   const model = intercept ? '' : ' for a model without intercept';
-  const exactP = p === null ? '' : `the exact ${alt === 'two-sided' ? 'two-sided ' : ''}p-value for this design, ${formatPValue(p, alpha)}`;
+  const exactP = p === null ? '' : `the exact ${alt === 'two-sided' ? 'two-sided ' : ''}p-value for this design, ${formatPValue(p, alpha, errorBound)}`;
   const inconclusiveHere = (zone === 'inconclusive-positive' && alt !== 'negative') || (zone === 'inconclusive-negative' && alt !== 'positive');
   if (inconclusiveHere) {
     const range = zone === 'inconclusive-positive'
@@ -126,7 +128,9 @@ function resolve(d: number, dL: number, dU: number, zone: BoundsZone['zone'], al
   if (p === null) return `${verdict}.`;
   return (p <= alpha) === rejects
     ? `${verdict}; ${exactP}, agrees.`
-    : `${verdict}; but ${exactP}, ${p <= alpha ? 'rejects' : 'does not reject'} at ${pct(alpha)}: the bounds hold only for lag 1 with an intercept and no gaps in time, so report the exact p-value.`;
+    : `${verdict}; but ${exactP}, ${p <= alpha ? 'rejects' : 'does not reject'} at ${pct(alpha)}. ` +
+      'This cannot happen in exact arithmetic (the bounds are exact for lag 1 with an intercept and no gaps, the only case where they are computed), ' +
+      'so it is an internal numerical inconsistency: please report it with the data, and do not rely on either decision until it is resolved.';
 }
 
 /**
@@ -143,24 +147,22 @@ export function pct(a: number): string {
 }
 
 /**
- * A p-value with as few significant digits (2 to 6) as keep its comparison with alpha visible:
- * 0.0501 is never shown as "0.050" beside "does not reject at 5%".
+ * A p-value in a sentence beside a decision at alpha (core/format-number.ts, SENTENCE_STYLE): two
+ * significant digits, more when needed so that the printed number lies on the same side of alpha
+ * as the exact one (0.0501 is never shown as "0.050" beside "does not reject at 5%"); a value
+ * clamped to 0 with an error bound > 0 as "< bound"; "at the numerical limit" added when
+ * |p - alpha| <= errorBound.
  *
  * @example
  * ```ts
- * formatPValue(0.039, 0.05);  // "0.039"
- * formatPValue(0.0501, 0.05); // "0.0501"
+ * formatPValue(0.039, 0.05);        // "0.039"
+ * formatPValue(0.0501, 0.05);       // "0.0501"
+ * formatPValue(0, 0.05, 3e-12);     // "< 3e-12"
  * ```
  */
-export function formatPValue(p: number, alpha: number): string {
-  if (p === 0) return '0';
-  if (p < 1e-4) return p.toExponential(1);
-  for (let digits = 2; digits <= 6; digits++) {
-    const s = p.toPrecision(digits);
-    const r = Number(s);
-    if ((r <= alpha) === (p <= alpha) && (r !== alpha || p === alpha)) return String(r);
-  }
-  return String(Number(p.toPrecision(6)));
+export function formatPValue(p: number, alpha: number, errorBound = 0): string {
+  const f = formatProbability(p, SENTENCE_STYLE, { alpha, errorBound });
+  return f.atLimit ? `${f.text} (within the numerical error bound of ${pct(alpha)}: the decision is at the numerical limit)` : f.text;
 }
 
 /** Numbers with 3 decimals, or more (up to 6) when two of them would otherwise print the same. */

@@ -154,7 +154,7 @@ export function choiceOption<T extends string>(values: OptionValues, name: strin
 
 /** The engine choice. */
 export function methodOption(values: OptionValues): MethodChoice {
-  return choiceOption(values, 'method', ['auto', 'imhof', 'pan', 'eigenfree'] as const, 'auto');
+  return choiceOption(values, 'method', ['auto', 'imhof', 'pan', 'eigenfree', 'saddlepoint'] as const, 'auto');
 }
 
 /** A comma-separated list of names. */

@@ -80,7 +80,7 @@ export function decodeText(bytes: Uint8Array, path = 'the input'): string {
  * `force` true the new content is written beside the target and renamed over it, so the old file
  * is replaced whole or not at all.
  *
- * @throws DwError FILE_EXISTS (the file is there and `force` is false), FILE_UNREADABLE (the
+ * @throws DwError FILE_EXISTS (the file is there and `force` is false), FILE_UNWRITABLE (the
  *   folder cannot be written, or the path is a folder)
  * @example
  * ```ts
@@ -92,9 +92,9 @@ export function writeText(path: string, text: string, force: boolean): void {
     'Choose another name, or add --force to replace it.', { file: path });
   if (existsSync(path) && !force) throw exists();
   if (existsSync(path) && statSync(path).isDirectory()) {
-    throw new DwError('FILE_UNREADABLE', `'${path}' is a folder; a file cannot be written there.`, 'Give a file name.', { file: path });
+    throw new DwError('FILE_UNWRITABLE', `'${path}' is a folder; a file cannot be written there.`, 'Give a file name.', { file: path });
   }
-  const cannot = (err: unknown) => new DwError('FILE_UNREADABLE', `The file '${path}' cannot be written (${(err as NodeJS.ErrnoException).code ?? 'error'}).`,
+  const cannot = (err: unknown) => new DwError('FILE_UNWRITABLE', `The file '${path}' cannot be written (${(err as NodeJS.ErrnoException).code ?? 'error'}).`,
     'Check that the folder exists and is writable.', { file: path });
   try {
     mkdirSync(dirname(path), { recursive: true });

@@ -3,6 +3,7 @@
  * that define the statistic (intercept, lag, time column, engine).
  */
 import { DwError } from '../errors.js';
+import { TERMINAL_STYLE, formatProbability, type ProbabilityContext } from '../core/format-number.js';
 import { numericColumn, parseCsv, columnIndex, isTextColumn, type DataTable } from '../data/csv.js';
 import type { ProblemOptions } from '../inference/problem.js';
 import { choiceOption, integerOption, listOption, methodOption, type OptionSpecs, type OptionValues } from './args.js';
@@ -19,7 +20,7 @@ export const MODEL_OPTIONS: OptionSpecs = {
   'no-intercept': { type: 'boolean', help: 'do not add an intercept (a constant column you supply still counts as one)' },
   lag: { type: 'string', value: 'J', help: 'difference at lag J (default 1; 4 for quarterly data, Wallis 1972)' },
   time: { type: 'string', value: 'COL', help: 'integer time column (years, quarter numbers); not a regressor; gaps are honoured' },
-  method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan or eigenfree' },
+  method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan, eigenfree or saddlepoint' },
 };
 
 /** Read and parse a CSV file named on the command line. */
@@ -119,9 +120,11 @@ export function chooseRegressors(table: DataTable, values: OptionValues, yName: 
   return out;
 }
 
-/** Format a probability for a terminal: plain decimals down to 1e-4, then scientific. */
-export function formatP(p: number): string {
-  if (p === 0) return '0';
-  if (p >= 1e-4) return p.toFixed(6).replace(/0+$/, '').replace(/\.$/, '');
-  return p.toExponential(3);
+/**
+ * Format a probability for a terminal (src/core/format-number.ts, TERMINAL_STYLE): up to six
+ * decimals down to 1e-4, then four significant digits; with `alpha`, more digits when needed to
+ * stay on its side of alpha; with an `errorBound`, a value clamped to 0 as "< bound".
+ */
+export function formatP(p: number, context: ProbabilityContext = {}): string {
+  return formatProbability(p, TERMINAL_STYLE, context).text;
 }

@@ -83,6 +83,14 @@ export function differencePairs(n: number, lag = 1, times?: ArrayLike<number>): 
 /**
  * A = D'D as a symmetric band matrix. Bandwidth is at most the lag (pairs are at most `lag`
  * rows apart because times increase strictly).
+ *
+ * @example
+ * ```ts
+ * const a = differenceMatrix(differencePairs(4));
+ * a.bands; // [Float64Array [1, 2, 2, 1], Float64Array [-1, -1, -1]]: diagonal, first off-diagonal
+ * differenceMatrix(differencePairs(4, 1, [1990, 1991, 1993, 1994])).bands;
+ * // [[1, 1, 1, 1], [-1, 0, -1]]: no pair across the missing year 1992
+ * ```
  */
 export function differenceMatrix(pairs: DifferencePairs): BandMatrix {
   const { n } = pairs;
@@ -100,7 +108,15 @@ export function differenceMatrix(pairs: DifferencePairs): BandMatrix {
   return { n, bandwidth: bw, bands };
 }
 
-/** The band matrix as a dense row-major n x n array (for references and small problems). */
+/**
+ * The band matrix as a dense row-major n x n array (for references and small problems).
+ *
+ * @example
+ * ```ts
+ * bandToDense(differenceMatrix(differencePairs(3)));
+ * // Float64Array [1, -1, 0,  -1, 2, -1,  0, -1, 1]
+ * ```
+ */
 export function bandToDense(a: BandMatrix): Float64Array {
   const { n, bands } = a;
   const out = new Float64Array(n * n);
@@ -114,7 +130,16 @@ export function bandToDense(a: BandMatrix): Float64Array {
   return out;
 }
 
-/** y = A x for a symmetric band matrix. */
+/**
+ * y = A x for a symmetric band matrix (y may be passed in to avoid an allocation).
+ *
+ * @example
+ * ```ts
+ * const a = differenceMatrix(differencePairs(4));
+ * bandMultiply(a, [1, 2, 3, 4]); // Float64Array [-1, 0, 0, 1]
+ * // e'Ae / e'e is d: for e = [1, -1, 1, -1], A e = [2, -4, 4, -2], e'Ae = 12, d = 12 / 4 = 3
+ * ```
+ */
 export function bandMultiply(a: BandMatrix, x: ArrayLike<number>, y = new Float64Array(a.n)): Float64Array {
   const { n, bands } = a;
   const d0 = bands[0];

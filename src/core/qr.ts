@@ -73,19 +73,44 @@ function reflect(f: HouseholderQR, j: number, y: Float64Array): void {
   for (let i = j + 1; i < n; i++) y[i] -= s * qr[off + i];
 }
 
-/** y <- Q' y (in place). */
+/**
+ * y <- Q' y (in place; returns y). The first k entries are the coordinates of y in col(X), the
+ * last n - k those of its residual: their sum of squares is the residual sum of squares.
+ *
+ * @example
+ * ```ts
+ * const f = householderQR(Float64Array.of(1, 1, 1, 1), 4, 1); // intercept only
+ * applyQt(f, Float64Array.of(1, 2, 3, 4)); // Float64Array [-5, 0, 1, 2]: 0^2 + 1^2 + 2^2 = 5 = sum (y - 2.5)^2
+ * ```
+ */
 export function applyQt(f: HouseholderQR, y: Float64Array): Float64Array {
   for (let j = 0; j < f.k; j++) reflect(f, j, y);
   return y;
 }
 
-/** y <- Q y (in place). */
+/**
+ * y <- Q y (in place; returns y): the inverse of {@link applyQt}.
+ *
+ * @example
+ * ```ts
+ * const f = householderQR(Float64Array.of(1, 1, 1, 1), 4, 1);
+ * applyQ(f, applyQt(f, Float64Array.of(1, 2, 3, 4))); // Float64Array [1, 2, 3, 4] (to rounding)
+ * ```
+ */
 export function applyQ(f: HouseholderQR, y: Float64Array): Float64Array {
   for (let j = f.k - 1; j >= 0; j--) reflect(f, j, y);
   return y;
 }
 
-/** The thin Q (n x k, column-major): an orthonormal basis of col(X). */
+/**
+ * The thin Q (n x k, column-major): an orthonormal basis of col(X).
+ *
+ * @example
+ * ```ts
+ * columnBasis(householderQR(Float64Array.of(1, 1, 1, 1), 4, 1));
+ * // { n: 4, k: 1, q: Float64Array [-0.5, -0.5, -0.5, -0.5] } (the sign is the reflector's)
+ * ```
+ */
 export function columnBasis(f: HouseholderQR): ColumnBasis {
   const { n, k } = f;
   const q = new Float64Array(n * k);
@@ -103,6 +128,14 @@ export function columnBasis(f: HouseholderQR): ColumnBasis {
  * Q' S Q for a dense symmetric n x n matrix S (row-major, overwritten), by two-sided application
  * of the reflectors: O(n^2 k). The trailing (n-k) x (n-k) block is Z'SZ for Z an orthonormal basis
  * of the complement of col(X).
+ *
+ * @example
+ * ```ts
+ * const f = householderQR(Float64Array.of(1, 1, 1, 1), 4, 1);
+ * const s = congruence(f, bandToDense(differenceMatrix(differencePairs(4))));
+ * // row and column 0 are zero (A 1 = 0); the trailing 3 x 3 block Z'AZ has the eigenvalues
+ * // 2 - 2 cos(pi i / 4), i = 1, 2, 3 (Durbin & Watson 1950)
+ * ```
  */
 export function congruence(f: HouseholderQR, s: Float64Array): Float64Array {
   const { n, qr, beta } = f;

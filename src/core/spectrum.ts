@@ -29,14 +29,28 @@ export function denseSpectrum(a: BandMatrix, f: HouseholderQR): Float64Array {
   return symmetricEigenvalues(block, m);
 }
 
-/** Exact mean of d: sum nu / m (METHODS.md section 2). */
+/**
+ * Exact mean of d: sum nu / m (METHODS.md section 2).
+ *
+ * @example
+ * ```ts
+ * spectrumMean(Float64Array.of(1, 2, 3)); // 2
+ * ```
+ */
 export function spectrumMean(nu: Float64Array): number {
   let s = 0;
   for (let i = 0; i < nu.length; i++) s += nu[i];
   return s / nu.length;
 }
 
-/** Exact variance of d: 2 (m sum nu^2 - (sum nu)^2) / (m^2 (m + 2)), computed stably about the mean. */
+/**
+ * Exact variance of d: 2 (m sum nu^2 - (sum nu)^2) / (m^2 (m + 2)), computed stably about the mean.
+ *
+ * @example
+ * ```ts
+ * spectrumVariance(Float64Array.of(1, 2, 3)); // 2 * 3 * 2 / (9 * 5) = 0.2667
+ * ```
+ */
 export function spectrumVariance(nu: Float64Array): number {
   const m = nu.length;
   const mean = spectrumMean(nu);

@@ -5,7 +5,12 @@
  */
 
 /** Name of a probability engine. */
-export type EngineName = 'imhof' | 'pan' | 'eigenfree';
+/**
+ * Name of a probability engine: Imhof's integral on the spectrum, Pan's finite-range form, the
+ * eigen-free log-determinant route, and the inversion on a line through the saddlepoint (for small
+ * tails with relative accuracy, any spectrum).
+ */
+export type EngineName = 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint';
 
 /** Engine choice offered to callers: a named engine, or `auto` to let the library choose. */
 export type MethodChoice = 'auto' | EngineName;

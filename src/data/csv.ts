@@ -247,13 +247,33 @@ function notNumberHint(table: DataTable, v: string): string {
   return 'Every value in a column used by the model must be a plain number such as 12.5 or -3e-4.';
 }
 
-/** The named column as numbers; throws COLUMN_UNKNOWN for a name not in the header. */
+/**
+ * The named column as numbers; throws COLUMN_UNKNOWN for a name not in the header, and the
+ * CELL_* errors of {@link parseCell} (naming the data row) for a cell that is not a finite number.
+ *
+ * @example
+ * ```ts
+ * const table = parseCsv('year,y\n2001,1.5\n2002,1.7\n');
+ * numericColumn(table, 'y'); // Float64Array [1.5, 1.7]
+ * numericColumn(table, 'Y'); // throws COLUMN_UNKNOWN: Did you mean 'y'?
+ * ```
+ */
 export function numericColumn(table: DataTable, column: string): Float64Array {
   const j = columnIndex(table, column);
   return Float64Array.from(table.rows, (r, i) => parseCell(table, i, column, r[j]));
 }
 
-/** Index of a column, or an error listing the columns there are. */
+/**
+ * Index of a column, or an error listing the columns there are (COLUMN_UNKNOWN, with a hint when
+ * only the case differs).
+ *
+ * @example
+ * ```ts
+ * const table = parseCsv('year,y,x\n2001,1.5,3\n2002,1.7,4\n');
+ * columnIndex(table, 'x');     // 2
+ * columnIndex(table, 'sales'); // throws COLUMN_UNKNOWN: its columns are 'year', 'y', 'x'
+ * ```
+ */
 export function columnIndex(table: DataTable, column: string): number {
   const j = table.headers.indexOf(column);
   if (j < 0) {
@@ -265,14 +285,16 @@ export function columnIndex(table: DataTable, column: string): number {
   return j;
 }
 
-/** True when every cell of the column parses as a number. */
-export function isNumericColumn(table: DataTable, column: string): boolean {
-  try { numericColumn(table, column); return true; } catch { return false; }
-}
-
 /**
  * True when no cell of the column is a number (a label or text column). A column with some numbers
  * and some other cells is neither text nor numeric: it is data with a fault in it.
+ *
+ * @example
+ * ```ts
+ * const table = parseCsv('y,label\n1.5,a\n1.7,b\n');
+ * isTextColumn(table, 'label'); // true
+ * isTextColumn(table, 'y');     // false
+ * ```
  */
 export function isTextColumn(table: DataTable, column: string): boolean {
   const j = columnIndex(table, column);

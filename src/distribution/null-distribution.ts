@@ -8,6 +8,7 @@ import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
 import { tailProbability, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { imhofDensity } from '../engines/imhof.js';
 import { brentRoot } from './root.js';
+import { normalUpperQuantileStart } from '../core/normal-start.js';
 import { spectrumSource, type NullSource } from './source.js';
 
 /** Options of a null distribution. */
@@ -136,9 +137,14 @@ export class DwNullDistribution {
    */
   private solveTail(tail: Tail, q: number): number {
     const [lo, hi] = this.support;
-    const method = (this.options.method ?? 'auto') === 'auto' && q >= 1e-4 && (this.source.hasSpectrum() || !this.source.operator || (this.source.basis?.n ?? 0) <= AUTO_SPECTRUM_MAX_N)
-      ? 'imhof' : this.options.method;
-    const opts = { ...this.options, method };
+    const chosen = this.options.method ?? 'auto';
+    // for q >= 1e-4 the absolute accuracy of the plain integral (about 1e-11) is ample during the
+    // search; the root is checked with the full choice and its bound afterwards
+    // (the engine `auto` starts from at this size: no dependence on what has been computed before)
+    const n = this.source.basis?.n ?? 0;
+    const searchMethod = chosen !== 'auto' || q < 1e-4 ? chosen
+      : this.source.operator && n > AUTO_SPECTRUM_MAX_N ? 'eigenfree' as const : 'imhof' as const;
+    const opts = { ...this.options, method: searchMethod };
     // g increases with c: P(d <= c) - q for the lower tail, q - P(d >= c) for the upper tail
     const g = (c: number) => {
       const t = tailProbability(this.source, c, tail, opts).p;
@@ -150,25 +156,34 @@ export class DwNullDistribution {
     const guess = Math.min(hi, Math.max(lo, this.mean + (tail === 'lower' ? -z : z) * sd));
     let x0 = guess, x1 = guess;
     let g0 = g(guess), g1 = g0;
-    let step = 0.25 * sd;
+    let step = Math.max(0.25 * sd, 1e-6 * (hi - lo));
     if (g0 > 0) {
       // the root lies below the guess
       while (g0 > 0 && x0 > lo) { x1 = x0; g1 = g0; x0 = Math.max(lo, x0 - step); g0 = g(x0); step *= 2; }
     } else {
       while (g1 < 0 && x1 < hi) { x0 = x1; g0 = g1; x1 = Math.min(hi, x1 + step); g1 = g(x1); step *= 2; }
     }
-    if (g0 === 0) return x0;
-    if (g1 === 0) return x1;
-    return brentRoot(g, x0, x1, 1e-11 * Math.max(1, hi - lo));
+    let root: number;
+    if (g0 === 0) root = x0;
+    else if (g1 === 0) root = x1;
+    else if (g0 > 0 || g1 < 0) {
+      throw new DwError('NOT_CONVERGED', `No value of d has tail probability ${q} on the ${tail} side within [${lo}, ${hi}].`,
+        'Check the level; if it is valid, please report the design.');
+    } else root = brentRoot(g, x0, x1, 1e-11 * Math.max(1, hi - lo));
+    // the bound at the root must resolve the level: else the engine cannot vouch for this quantile
+    const at = tailProbability(this.source, root, tail, this.options);
+    if (!(at.errorBound <= 1e-3 * q)) {
+      throw new DwError('NOT_CONVERGED',
+        `The ${at.method} engine cannot resolve the level ${q}: its error bound near the critical value is ${at.errorBound.toExponential(1)}.`,
+        chosen === 'auto' ? 'The level is beyond what the engines can vouch for at this n; use a larger level.' : "Use the default engine choice ('auto'), which keeps relative accuracy in the far tails.");
+    }
+    return root;
   }
 }
 
 /** The z with P(Z > z) = q for a standard normal Z, roughly (a starting value only). */
 function normalQuantileUpper(q: number): number {
-  const p = Math.min(Math.max(q, 1e-300), 0.5);
-  const t = Math.sqrt(-2 * Math.log(p));
-  // Abramowitz & Stegun 26.2.23, |error| < 4.5e-4: ample for a bracket
-  return t - (2.515517 + 0.802853 * t + 0.010328 * t * t) / (1 + 1.432788 * t + 0.189269 * t * t + 0.001308 * t * t * t);
+  return normalUpperQuantileStart(Math.min(Math.max(q, 1e-300), 0.5));
 }
 
 function checkPoint(c: number): void {

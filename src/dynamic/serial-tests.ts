@@ -26,7 +26,8 @@ import { DwError, isDwError } from '../errors.js';
 import { durbinWatson, differencePairs } from '../core/difference.js';
 import { buildDesign, factorDesign, type FactoredDesign, type RegressorInput } from '../model/design.js';
 import { fitLeastSquares, type LeastSquaresFit } from '../model/ols.js';
-import type { Alternative, DynamicModelCheck } from '../inference/dw-test.js';
+import type { DynamicModelCheck } from '../core/result-types.js';
+import { checkAlternative, type Alternative } from '../core/alternative.js';
 import { chiSquareSf, fSf, normalSf, studentTSf } from './tails.js';
 import { detectLaggedDependent } from './lagged-dependent.js';
 
@@ -268,10 +269,7 @@ function fmt(v: number): string {
 
 /** Build, factor and fit; returns the pieces every check needs. */
 function fitModel(input: SerialTestInput): { fd: FactoredDesign; fit: LeastSquaresFit; alternative: Alternative; order: number } {
-  const alternative = input.alternative ?? 'positive';
-  if (!['positive', 'negative', 'two-sided'].includes(alternative)) {
-    throw new DwError('OPTION_VALUE', `Unknown alternative '${alternative}'.`, 'Use positive, negative or two-sided.');
-  }
+  const alternative = checkAlternative(input.alternative ?? 'positive');
   const n = input.y.length;
   const fd = factorDesign(buildDesign(input.x, n, { intercept: input.intercept, names: input.names }));
   const fit = fitLeastSquares(fd, input.y);

@@ -1,8 +1,9 @@
 /**
  * Engine choice. `auto` answers with the engine best suited to the request and says why:
  *
- *   1. a design whose spectrum is not yet known and whose n exceeds {@link AUTO_SPECTRUM_MAX_N}
- *      goes to the eigen-free engine (O(n k) per evaluation, no eigenvalues at all);
+ *   1. a design with n above {@link AUTO_SPECTRUM_MAX_N} goes to the eigen-free engine (O(n k) per
+ *      evaluation, no eigenvalues at all); if its answer is a small tail without relative accuracy
+ *      and n allows the structured spectrum, the tail engines below take over;
  *   2. otherwise Imhof's integral on the spectrum (absolute error <= 1e-10, any spectrum, ties too);
  *   3. when that probability is small enough that its absolute bound is a poor relative one
  *      (relative error above {@link AUTO_RELATIVE_TARGET}), Pan's finite-range form answers instead
@@ -14,7 +15,8 @@
  * Callers may force an engine with `method`; a forced engine that cannot answer raises
  * ENGINE_NOT_APPLICABLE with the reason, never a wrong number.
  */
-import { DwError } from '../errors.js';
+import { DwError, isDwError } from '../errors.js';
+import { FAST_SPECTRUM_MAX_N } from '../core/fast-spectrum.js';
 import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
 import { imhofTail, integrateImhof } from './imhof.js';
 import { panApplicable, panTail } from './pan.js';
@@ -39,12 +41,7 @@ function eigenfree(source: NullSource, c: number, tail: Tail, tolerance?: number
     throw new DwError('ENGINE_NOT_APPLICABLE', 'The eigen-free engine needs a design (operator and regressors), not a bare spectrum.',
       'Use --method imhof or pan for a given spectrum.');
   }
-  const [lo, hi] = source.support();
   const below = tail === 'lower';
-  if (source.hasSpectrum() && (c <= lo || c >= hi)) {
-    const p = (c <= lo) === below ? 0 : 1;
-    return { p, errorBound: 0, relativeError: 0, method: 'eigenfree' };
-  }
   const r = integrateImhof(eigenfreeForm(source.operator, source.basis, c, below ? 1 : -1), { tolerance });
   return { p: r.p, errorBound: r.errorBound, relativeError: r.p > 0 ? r.errorBound / r.p : Infinity, method: 'eigenfree' };
 }
@@ -69,10 +66,12 @@ export function tailProbability(source: NullSource, c: number, tail: Tail, optio
       if (!ok.ok) {
         throw new DwError('ENGINE_NOT_APPLICABLE', `Pan's engine does not apply here: ${ok.reason}.`, 'Use --method auto or imhof.');
       }
-      return panTail(nu, c, tail);
+      return panTail(nu, c, tail, tolerance === undefined ? {} : { tolerance: Math.max(tolerance, 1e-12) });
     }
     case 'eigenfree':
       return eigenfree(source, c, tail, tolerance);
+    case 'saddlepoint':
+      return contourTail(source.spectrum(), c, tail);
     case 'auto':
       return auto(source, c, tail, tolerance);
     default:
@@ -82,8 +81,17 @@ export function tailProbability(source: NullSource, c: number, tail: Tail, optio
 
 function auto(source: NullSource, c: number, tail: Tail, tolerance?: number): TailProbability {
   const n = source.basis?.n ?? 0;
-  if (!source.hasSpectrum() && source.operator && n > AUTO_SPECTRUM_MAX_N) {
-    return { ...eigenfree(source, c, tail, tolerance), reason: `eigen-free engine: n = ${n} is large, so no spectrum is computed (O(n k) per evaluation)` };
+  // the rule depends on the problem alone (never on what happens to be computed already), so the
+  // same input always gets the same engine and the same number
+  if (source.operator && n > AUTO_SPECTRUM_MAX_N) {
+    const ef = eigenfree(source, c, tail, tolerance);
+    if ((ef.p > 0 && ef.relativeError <= AUTO_RELATIVE_TARGET) || (ef.p === 0 && ef.errorBound === 0)) {
+      return { ...ef, reason: `eigen-free engine: n = ${n} is large, so no spectrum is needed (O(n k) per evaluation)` };
+    }
+    if (n > FAST_SPECTRUM_MAX_N) {
+      return { ...ef, reason: `eigen-free engine (small tail: relative error ${ef.relativeError.toExponential(1)}; n = ${n} is beyond the spectrum the tail engines need)` };
+    }
+    // a small tail at moderate n: the spectrum (O(k n^2)) buys relative accuracy below
   }
   const nu = source.spectrum();
   const im = imhofTail(nu, c, tail, { tolerance });
@@ -95,7 +103,10 @@ function auto(source: NullSource, c: number, tail: Tail, tolerance?: number): Ta
   const ok = panApplicable(nu, c);
   let pan: TailProbability | null = null;
   if (ok.ok) {
-    try { pan = panTail(nu, c, tail); } catch { pan = null; } // Pan could not vouch for its number
+    try { pan = panTail(nu, c, tail); } catch (err) {
+      if (!isDwError(err)) throw err;
+      pan = null; // Pan could not vouch for its number
+    }
   }
   const shifted = contourTail(nu, c, tail);
   if (pan && pan.relativeError <= shifted.relativeError && pan.relativeError < im.relativeError) {

@@ -24,6 +24,7 @@
  */
 import { DwError } from '../errors.js';
 import { operatorChains } from '../core/fast-spectrum.js';
+import { PivotProduct, smallLogDet } from './complex-ldl.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis } from '../core/types.js';
 
 /**
@@ -337,50 +338,6 @@ function bandLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): L
   };
 }
 
-/**
- * The running product of the LDL' pivots, normalised now and then so that it neither over- nor
- * underflows: its modulus is exp(logAbs) |p| and its continuous argument arg(p) + 2 pi wind, the
- * turns counted as the product crosses the negative real axis (each pivot has |arg| < pi/2).
- */
-class PivotProduct {
-  private pr = 1;
-  private pim = 0;
-  private logAbs = 0;
-  private wind = 0;
-
-  reset(): void { this.pr = 1; this.pim = 0; this.logAbs = 0; this.wind = 0; }
-
-  push(dr: number, di: number, countTurns: boolean): void {
-    const { pr, pim } = this;
-    const npr = pr * dr - pim * di;
-    const npi = pr * di + pim * dr;
-    if (countTurns) {
-      if (pim >= 0) { if (npi < 0 && di > 0) this.wind++; } else if (npi >= 0 && di < 0) this.wind--;
-    }
-    this.pr = npr; this.pim = npi;
-    const mag = Math.abs(npr) + Math.abs(npi);
-    if (mag > 1e100 || mag < 1e-100) {
-      const h = Math.hypot(npr, npi);
-      this.logAbs += Math.log(h);
-      this.pr = npr / h; this.pim = npi / h;
-    }
-  }
-
-  logModulus(): number { return this.logAbs + Math.log(Math.hypot(this.pr, this.pim)); }
-
-  argument(): number { return principalArg(this.pr, this.pim) + 2 * Math.PI * this.wind; }
-}
-
-/**
- * Argument of a complex number in (-pi, pi], with the upper half-plane taken as Im >= 0 (also for
- * a negative zero), matching the turn counting above: a pivot with |arg| < pi/2 moves the running
- * product across the negative real axis exactly when Im changes between >= 0 and < 0 while the
- * pivot turns the same way.
- */
-function principalArg(re: number, im: number): number {
-  return im >= 0 ? Math.atan2(Math.abs(im), re) : Math.atan2(im, re);
-}
-
 /** G += (y / d) y' on the lower triangle (complex, no conjugation). */
 function accumulateG(yr: Float64Array, yi: Float64Array, dr: number, di: number, k: number, gr: Float64Array, gi: Float64Array): void {
   const dd = dr * dr + di * di;
@@ -394,45 +351,4 @@ function accumulateG(yr: Float64Array, yi: Float64Array, dr: number, di: number,
       gi[o + b] += ur * yi[b] + ui * yr[b];
     }
   }
-}
-
-/**
- * log det of a k x k complex symmetric matrix (lower triangle of gr, gi; overwritten) by LDL'
- * without pivoting, as the sum of the principal logarithms of the pivots.
- */
-function smallLogDet(k: number): (gr: Float64Array, gi: Float64Array, out: Float64Array) => void {
-  return (gr, gi, out) => {
-    let re = 0, im = 0;
-    for (let j = 0; j < k; j++) {
-      // pivot: D_j = G_jj - sum_{s<j} L_js^2 D_s, with L stored over G (strict lower), D on the diagonal
-      let dr = gr[j * k + j], di = gi[j * k + j];
-      for (let x = 0; x < j; x++) {
-        const lr = gr[j * k + x], li = gi[j * k + x];
-        const wr = lr * gr[x * k + x] - li * gi[x * k + x]; // L_jx D_x
-        const wi = lr * gi[x * k + x] + li * gr[x * k + x];
-        dr -= wr * lr - wi * li;
-        di -= wr * li + wi * lr;
-      }
-      gr[j * k + j] = dr; gi[j * k + j] = di;
-      re += 0.5 * Math.log(dr * dr + di * di);
-      im += Math.atan2(di, dr);
-      const dd = dr * dr + di * di;
-      for (let i = j + 1; i < k; i++) {
-        // L_ij = (G_ij - sum_{s<j} L_is L_js D_s) / D_j
-        let vr = gr[i * k + j], vi = gi[i * k + j];
-        for (let x = 0; x < j; x++) {
-          const ar = gr[i * k + x], ai = gi[i * k + x];
-          const br = gr[j * k + x], bi = gi[j * k + x];
-          const abr = ar * br - ai * bi, abi = ar * bi + ai * br;
-          const xr = gr[x * k + x], xi = gi[x * k + x];
-          vr -= abr * xr - abi * xi;
-          vi -= abr * xi + abi * xr;
-        }
-        gr[i * k + j] = (vr * dr + vi * di) / dd;
-        gi[i * k + j] = (vi * dr - vr * di) / dd;
-      }
-    }
-    out[0] = re;
-    out[1] = im;
-  };
 }

@@ -15,6 +15,7 @@
  * out as 1/2 minus a number near 1/2, so relative accuracy in the far tails is the Pan engine's job.
  */
 import { adaptiveIntegrate } from '../core/quadrature.js';
+import { exactTail } from '../core/exact-tail.js';
 import type { CharacteristicForm, Tail, TailProbability } from '../core/types.js';
 
 /** Options shared by the Imhof-type engines. */
@@ -127,15 +128,12 @@ export function spectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): Cha
 export function imhofTail(nu: Float64Array, c: number, tail: Tail, options: ImhofOptions = {}): TailProbability {
   const m = nu.length;
   const below = tail === 'lower';
-  if (c <= nu[0]) return exact(below ? 0 : 1);
-  if (c >= nu[m - 1]) return exact(below ? 1 : 0);
+  if (c <= nu[0]) return exactTail(below ? 0 : 1, 'imhof');
+  if (c >= nu[m - 1]) return exactTail(below ? 1 : 0, 'imhof');
   const r = integrateImhof(spectralForm(nu, c, below ? 1 : -1), options);
   return { p: r.p, errorBound: r.errorBound, relativeError: r.p > 0 ? r.errorBound / r.p : Infinity, method: 'imhof' };
 }
 
-function exact(p: number): TailProbability {
-  return { p, errorBound: 0, relativeError: 0, method: 'imhof' };
-}
 
 /**
  * The exact density of d at c, the derivative of Imhof's form of P(d <= c) with respect to c:

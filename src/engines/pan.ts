@@ -34,6 +34,7 @@
  */
 import { DwError } from '../errors.js';
 import type { Tail, TailProbability } from '../core/types.js';
+import { exactTail } from '../core/exact-tail.js';
 
 /** Options for {@link panTail}. */
 export interface PanOptions {
@@ -102,32 +103,32 @@ function gaussLegendre(n: number): GaussRule {
   const w = new Float64Array(count);
   for (let j = 0; j < count; j++) {
     let z = Math.cos((Math.PI * (j + 0.75)) / (n + 0.5)); // Tricomi's first approximation
-    let dp = 1;
     for (let it = 0; it < 100; it++) {
-      let p0 = 1;
-      let p1 = z;
-      for (let k = 2; k <= n; k++) {
-        const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k;
-        p0 = p1;
-        p1 = p2;
-      }
-      dp = (n * (z * p1 - p0)) / (z * z - 1);
-      const dz = p1 / dp;
+      const [p, dp] = legendre(n, z);
+      const dz = p / dp;
       z -= dz;
       if (Math.abs(dz) <= 4e-16) break;
     }
-    let p0 = 1;
-    let p1 = z;
-    for (let k = 2; k <= n; k++) {
-      const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k;
-      p0 = p1;
-      p1 = p2;
-    }
-    dp = (n * (z * p1 - p0)) / (z * z - 1);
+    const dp = legendre(n, z)[1];
     x[j] = Math.abs(z) < 1e-15 ? 0 : z;
     w[j] = 2 / ((1 - z * z) * dp * dp);
   }
   return { x, w };
+}
+
+/**
+ * P_n(z) and its derivative P_n'(z) = n (z P_n(z) - P_{n-1}(z)) / (z^2 - 1), by the three-term
+ * recurrence k P_k = (2k - 1) z P_{k-1} - (k - 1) P_{k-2} (A&S 22.7.10 and 22.8.5), for |z| < 1.
+ */
+function legendre(n: number, z: number): [number, number] {
+  let p0 = 1;
+  let p1 = z;
+  for (let k = 2; k <= n; k++) {
+    const p2 = ((2 * k - 1) * z * p1 - (k - 1) * p0) / k;
+    p0 = p1;
+    p1 = p2;
+  }
+  return [p1, (n * (z * p1 - p0)) / (z * z - 1)];
 }
 
 /**
@@ -562,8 +563,8 @@ export function panTail(nu: Float64Array, c: number, tail: Tail, options: PanOpt
   const m = nu.length;
   // d is constant when every eigenvalue is the same: not a case for Pan (nor a continuous law)
   if (nu[0] === nu[m - 1]) throw notApplicable(tieReason(nu, m, false) ?? 'all eigenvalues are equal');
-  if (c <= nu[0]) return { p: tail === 'lower' ? 0 : 1, errorBound: 0, relativeError: 0, method: 'pan' };
-  if (c >= nu[m - 1]) return { p: tail === 'lower' ? 1 : 0, errorBound: 0, relativeError: 0, method: 'pan' };
+  if (c <= nu[0]) return exactTail(tail === 'lower' ? 0 : 1, 'pan');
+  if (c >= nu[m - 1]) return exactTail(tail === 'lower' ? 1 : 0, 'pan');
 
   const [lower, upper] = formsAt(nu, c, tolerance);
   const wanted = tail === 'lower' ? lower : upper;

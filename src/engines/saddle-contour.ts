@@ -17,6 +17,7 @@
  * |s| >= t give a tail of at most T^(-m/2) / ((m/2) pi prod (2|lambda_j|)^(1/2)).
  */
 import { adaptiveIntegrate } from '../core/quadrature.js';
+import { exactTail } from '../core/exact-tail.js';
 import type { Tail, TailProbability } from '../core/types.js';
 
 /**
@@ -31,8 +32,8 @@ import type { Tail, TailProbability } from '../core/types.js';
 export function contourTail(nu: Float64Array, c: number, tail: Tail, relTolerance = 1e-10): TailProbability {
   const m = nu.length;
   const below = tail === 'lower';
-  if (c <= nu[0]) return exact(below ? 0 : 1);
-  if (c >= nu[m - 1]) return exact(below ? 1 : 0);
+  if (c <= nu[0]) return exactTail(below ? 0 : 1, 'saddlepoint');
+  if (c >= nu[m - 1]) return exactTail(below ? 1 : 0, 'saddlepoint');
   const lambda = new Float64Array(m);
   let minL = Infinity, maxAbs = 0;
   for (let j = 0; j < m; j++) {
@@ -94,9 +95,6 @@ export function contourTail(nu: Float64Array, c: number, tail: Tail, relToleranc
   const errAbsNorm = q.error + truncation;
   const relativeError = integral > 0 ? errAbsNorm / integral : Infinity;
   const pc = Math.min(1, Math.max(0, p));
-  return { p: pc, errorBound: pc * relativeError + 4 * Number.EPSILON * pc, relativeError, method: 'imhof' };
+  return { p: pc, errorBound: pc * relativeError + 4 * Number.EPSILON * pc, relativeError, method: 'saddlepoint' };
 }
 
-function exact(p: number): TailProbability {
-  return { p, errorBound: 0, relativeError: 0, method: 'imhof' };
-}

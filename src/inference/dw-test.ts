@@ -7,7 +7,9 @@ import { DwError } from '../errors.js';
 import { durbinWatson } from '../core/difference.js';
 import type { EngineName, MethodChoice } from '../core/types.js';
 import { fitLeastSquares, type Coefficient } from '../model/ols.js';
-import { designErrorAllowance, type RegressorInput } from '../model/design.js';
+import { designErrorAllowance, rowCount, type RegressorInput } from '../model/design.js';
+import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
+import type { BoundsZone, PowerSummary, DynamicModelCheck } from '../core/result-types.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from './problem.js';
 import { dynamicModelCheck } from '../dynamic/serial-tests.js';
 import { boundsZone } from '../bounds/zone.js';
@@ -16,7 +18,8 @@ import { powerForProblem } from '../power/exact-power.js';
 import type { ErrorProcess } from '../power/weights.js';
 
 /** The alternative hypothesis: positive or negative first-order autocorrelation, or either. */
-export type Alternative = 'positive' | 'negative' | 'two-sided';
+export type { Alternative } from '../core/alternative.js';
+export type { BoundsZone, PowerSummary, DynamicModelCheck } from '../core/result-types.js';
 
 /** Input of {@link exactDwTest}: y (fitted here) or residuals (already fitted) with the regressors. */
 export interface DwTestInput extends ProblemOptions {
@@ -63,58 +66,12 @@ export interface DwPValues {
   errorBound: number;
 }
 
-/**
- * Where the classical bounds test (Durbin & Watson 1950, 1951; tables such as Savin & White 1977)
- * would have landed for this n and k, and how the exact p-value resolves it.
- */
-export interface BoundsZone {
-  /** Regressors other than the intercept (the tables' k'). */
-  kPrime: number;
-  /** Level of each one-sided bound used (alpha, or alpha/2 for a two-sided test). */
-  level: number;
-  dL: number;
-  dU: number;
-  /**
-   * Zone of d: 'reject-positive' (d < dL), 'inconclusive-positive' (dL <= d <= dU),
-   * 'no-evidence' (dU < d < 4 - dU), 'inconclusive-negative' (4 - dU <= d <= 4 - dL),
-   * 'reject-negative' (d > 4 - dL).
-   */
-  zone: 'reject-positive' | 'inconclusive-positive' | 'no-evidence' | 'inconclusive-negative' | 'reject-negative';
-  /** Plain-words account of what the bounds say and, when inconclusive, how the exact test decides. */
-  resolution: string;
-}
-
-/** Exact power of the test against stationary AR(1) errors for this X (METHODS.md section 6). */
-export interface PowerSummary {
-  alpha: number;
-  /** The exact critical value used (P(D <= critical) = alpha under the null). */
-  critical: number;
-  curve: { rho: number; power: number }[];
-  /** Target power and the smallest rho > 0 reaching it (null when not reached for rho < 1). */
-  target: number;
-  rhoAtTarget: number | null;
-}
-
-/** Diagnosis when the regressors include the dependent variable lagged (METHODS.md section 8). */
-export interface DynamicModelCheck {
-  /** Name of the lagged dependent regressor. */
-  laggedDependent: string;
-  /** How it was found: declared by the caller or detected from the data. */
-  how: 'declared' | 'detected';
-  /** Durbin's h (asymptotic N(0, 1)); null value with a reason when n V >= 1. */
-  durbinH: { h: number | null; pValue: number | null; reason: string };
-  /** Breusch-Godfrey LM test of order `order` (asymptotic), chi-square and F forms. */
-  breuschGodfrey: { order: number; lm: number; pChiSquare: number; f: number; pF: number; df1: number; df2: number };
-  /** t-test of the residual on its own lag and the regressors (asymptotic). */
-  residualT: { t: number; pValue: number };
-}
-
 /** Full result of {@link exactDwTest}. */
 export interface DwTestResult extends DwPValues {
   /** m = n - k. */
   m: number;
   lag: number;
-  /** Whether the model has an intercept (added or the caller's constant column). */
+  /** Whether the model has an intercept in effect: added, the caller's constant column, or columns that span the constant (a full set of dummies). */
   intercept: boolean;
   /** Whether the library added the intercept column. */
   interceptAdded: boolean;
@@ -131,7 +88,13 @@ export interface DwTestResult extends DwPValues {
   /** Exact critical values for this X: P(D <= lower) = a and P(D >= upper) = a, a = alpha (alpha/2 two-sided). */
   critical: { lower: number; upper: number; tailLevel: number };
   /** 'reject' when pValue <= alpha. */
-  decision: 'reject' | 'not-rejected';
+  /**
+   * 'reject' when pValue <= alpha; 'not-valid' when a lagged dependent variable makes d invalid
+   * (then `dynamic` holds the tests that replace it, and `dValid` is false).
+   */
+  decision: 'reject' | 'not-rejected' | 'not-valid';
+  /** False when d is not a valid test for this model (a lagged dependent variable). */
+  dValid: boolean;
   /** Exact mean and variance of d under the null. */
   nullMean: number;
   nullVariance: number;
@@ -146,15 +109,10 @@ export interface DwTestResult extends DwPValues {
   warnings: string[];
 }
 
-/** Check alpha and the alternative at the boundary where they enter. */
-export function checkAlpha(alpha: number): void {
-  if (!(alpha > 0 && alpha < 1)) {
-    throw new DwError('ALPHA_OUT_OF_RANGE', `The significance level ${alpha} is outside (0, 1).`, 'Use a level such as 0.05 or 0.01.');
-  }
-}
+export { checkAlpha } from '../core/alternative.js';
 
 /** Exact p-values of d for a prepared problem. */
-export function pValuesFor(problem: DwProblem, d: number): DwPValues {
+export function pValuesFor(problem: DwProblem, d: number, alternative?: Alternative): DwPValues {
   // each residual enters at most two differences, and (a - b)^2 <= 2a^2 + 2b^2: 0 <= d <= 4 at any lag
   if (!(Number.isFinite(d) && d >= 0 && d <= 4)) {
     throw new DwError('D_OUT_OF_RANGE', `d = ${d} is outside the possible range [0, 4].`, 'Check the value of d you passed.');
@@ -162,6 +120,9 @@ export function pValuesFor(problem: DwProblem, d: number): DwPValues {
   const lower = problem.distribution.lowerTail(d);
   const upper = problem.distribution.upperTail(d);
   const pTwo = Math.min(1, 2 * Math.min(lower.p, upper.p));
+  // the engine named is the one that computed the tail that was tested (for two-sided, or when no
+  // alternative is given, the smaller tail)
+  const tested = alternative === 'positive' ? lower : alternative === 'negative' ? upper : lower.p <= upper.p ? lower : upper;
   return {
     d,
     n: problem.factored.design.n,
@@ -169,8 +130,8 @@ export function pValuesFor(problem: DwProblem, d: number): DwPValues {
     pPositive: lower.p,
     pNegative: upper.p,
     pTwoSided: pTwo,
-    method: lower.method,
-    methodReason: lower.reason ?? '',
+    method: tested.method,
+    methodReason: tested.reason ?? '',
     errorBound: Math.max(lower.errorBound, upper.errorBound) * (pTwo < 1 ? 2 : 1),
   };
 }
@@ -208,15 +169,7 @@ export function exactDwCritical(input: ProblemOptions & { x: RegressorInput; alp
   };
 }
 
-/** Number of observations in regressors given as rows or columns. */
-export function rowCount(x: RegressorInput): number {
-  if (Array.isArray(x)) return x.length;
-  const cols = Object.values(x as Record<string, ArrayLike<number>>);
-  if (cols.length === 0) {
-    throw new DwError('OPTION_MISSING', 'With no regressor columns the number of observations must be given.', 'Pass n, or give y.');
-  }
-  return cols[0].length;
-}
+export { rowCount } from '../model/design.js';
 
 /**
  * The exact Durbin-Watson test: fit (or take residuals), compute d, its exact p-values for this X,
@@ -230,9 +183,7 @@ export function rowCount(x: RegressorInput): number {
  */
 export function exactDwTest(input: DwTestInput): DwTestResult {
   const alternative = input.alternative ?? 'positive';
-  if (!['positive', 'negative', 'two-sided'].includes(alternative)) {
-    throw new DwError('OPTION_VALUE', `Unknown alternative '${alternative}'.`, 'Use positive, negative or two-sided.');
-  }
+  checkAlternative(alternative);
   const alpha = input.alpha ?? 0.05;
   checkAlpha(alpha);
   if ((input.y === undefined) === (input.residuals === undefined)) {
@@ -267,13 +218,12 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
         throw new DwError('CELL_NOT_FINITE', `Residual ${i + 1} is ${residuals[i]}.`, 'Every residual must be a finite number.', { row: i + 1 });
       }
     }
-    const drift = orthogonalityDrift(problem, residuals);
-    if (drift > 1e-6) {
-      warnings.push(`The residuals are not orthogonal to the design (relative size of X'e about ${drift.toExponential(1)}): were they computed by least squares on these same regressors?`);
-    }
+    const checked = checkResiduals(problem, residuals);
+    residuals = checked.residuals;
+    warnings.push(...checked.warnings);
   }
   const d = durbinWatson(residuals, problem.pairs);
-  const p = pValuesFor(problem, d);
+  const p = pValuesFor(problem, d, alternative);
   if (dAllowance > 0) {
     // d is known to within dAllowance: add the density of d there times that (twice, for safety)
     const dist0 = problem.distribution;
@@ -286,7 +236,8 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
   const tailLevel = alternative === 'two-sided' ? alpha / 2 : alpha;
   const dist = problem.distribution;
   const critical = { lower: dist.quantile(tailLevel), upper: dist.upperQuantile(tailLevel), tailLevel };
-  if (design.interceptIndex < 0) {
+  const interceptInEffect = problem.factored.spansConstant;
+  if (!interceptInEffect) {
     warnings.push('The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.');
   }
   const gaps = problem.pairs.from.length < n - problem.pairs.lag;
@@ -304,12 +255,12 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
     throw new DwError('OPTION_CONFLICT', "Durbin's h and the Breusch-Godfrey test refit the model, so they need y, not residuals.",
       'Pass y (and the regressors) instead of the residuals.');
   }
-  const boundsApply = design.interceptIndex >= 0 && problem.pairs.lag === 1 && !gaps && n <= MAX_BOUNDS_N && n - design.k >= 2;
+  const boundsApply = interceptInEffect && problem.pairs.lag === 1 && !gaps && n <= MAX_BOUNDS_N && n - design.k >= 2;
   return {
     ...p,
     m: n - design.k,
     lag: problem.pairs.lag,
-    intercept: design.interceptIndex >= 0,
+    intercept: interceptInEffect,
     interceptAdded: design.interceptAdded,
     columns: design.names,
     coefficients,
@@ -318,15 +269,53 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
     alpha,
     pValue,
     critical,
-    decision: pValue <= alpha ? 'reject' : 'not-rejected',
+    decision: dynamic ? 'not-valid' : pValue <= alpha ? 'reject' : 'not-rejected',
+    dValid: dynamic === null,
     nullMean: dist.mean,
     nullVariance: dist.variance,
-    bounds: boundsApply && !dynamic ? boundsZone(d, n, design.k - 1, alpha, alternative, pValue) : null,
+    bounds: boundsApply && !dynamic ? boundsZone(d, n, design.k - 1, alpha, alternative, pValue, { exactPErrorBound: p.errorBound }) : null,
     power: input.power ? powerForProblem(problem, { ...input.power, alpha, alternative, times: input.times }) : null,
     dynamic,
     gaps,
     warnings,
   };
+}
+
+/** Residuals whose component in col(X) is larger than this (relative) are refused. */
+export const RESIDUAL_DRIFT_LIMIT = 1e-3;
+
+/**
+ * Check residuals given by the caller against the design: least-squares residuals are orthogonal
+ * to every column of X. Rounding (e.g. residuals exported with 6 significant digits) leaves a small
+ * component in col(X): it is removed (e <- M e) and a note says so. A large component means the
+ * residuals come from another model, and their d would be read against the wrong distribution:
+ * that is refused.
+ *
+ * @example
+ * ```ts
+ * const { residuals, warnings } = checkResiduals(prepareProblem(x, n), e);
+ * ```
+ */
+export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals: Float64Array; warnings: string[] } {
+  const drift = orthogonalityDrift(problem, e);
+  if (drift > RESIDUAL_DRIFT_LIMIT) {
+    throw new DwError('RESIDUALS_NOT_FROM_DESIGN',
+      `These residuals are not least-squares residuals of this design: their component in the space of the regressors is ${(100 * drift).toPrecision(2)}% of their size (it would be 0).`,
+      'Give the residuals of a fit on exactly these columns (with the intercept unless --no-intercept), or give y and let exact-dw fit it.');
+  }
+  if (!(drift > 1e-12)) return { residuals: e, warnings: [] };
+  const basis = problem.distribution.source.basis!;
+  const { n, k, q } = basis;
+  const out = Float64Array.from(e);
+  for (let j = 0; j < k; j++) {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += q[j * n + i] * out[i];
+    for (let i = 0; i < n; i++) out[i] -= s * q[j * n + i];
+  }
+  const warnings = drift > 1e-8
+    ? [`The residuals were not quite orthogonal to the design (relative component ${drift.toExponential(1)} in the space of the regressors, as from rounding when they were saved); that component was removed before computing d.`]
+    : [];
+  return { residuals: out, warnings };
 }
 
 /** ||Q'e|| / ||e|| for the basis Q of col(X). */

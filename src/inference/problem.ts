@@ -8,7 +8,9 @@ import { fastSpectrum } from '../core/fast-spectrum.js';
 import { checkSize } from '../limits.js';
 import type { BandMatrix, MethodChoice } from '../core/types.js';
 import { DwNullDistribution } from '../distribution/null-distribution.js';
-import { designSource } from '../distribution/source.js';
+import { designSource, type NullSource } from '../distribution/source.js';
+import { AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
+import { DwError } from '../errors.js';
 import { buildDesign, factorDesign, CONDITION_WARNING, type FactoredDesign, type RegressorInput } from '../model/design.js';
 
 /** What defines the statistic and its design. */
@@ -38,6 +40,29 @@ export interface DwProblem {
 }
 
 /**
+ * Refuse a design for which d is (numerically) constant: every difference is absorbed by the
+ * regressors (e.g. indicator columns for the only observations that are differenced), so d carries
+ * no information and its "distribution" is a point.
+ */
+function checkNotDegenerate(source: NullSource, n: number): void {
+  let constant: number | null = null;
+  if (n <= AUTO_SPECTRUM_MAX_N) {
+    const nu = source.spectrum();
+    if (nu[nu.length - 1] - nu[0] <= 1e-9) constant = nu[0];
+  } else {
+    const v = source.variance();
+    const mean = source.mean();
+    // the trace formula cancels to about eps * (mean^2 + variance): below that it is zero
+    if (v <= 1e3 * Number.EPSILON * (mean * mean + 1)) constant = mean;
+  }
+  if (constant !== null) {
+    throw new DwError('D_DEGENERATE',
+      `For this design d is the same for every sample (d = ${Math.abs(constant) < 1e-12 ? 0 : constant.toPrecision(6)}): the regressors absorb every difference that d is made of.`,
+      'Use fewer indicator (dummy) columns for single observations, a smaller lag, or more observations.');
+  }
+}
+
+/**
  * Build the exact null distribution of d for regressors `x` with `n` observations.
  *
  * @example
@@ -58,6 +83,7 @@ export function prepareProblem(x: RegressorInput, n: number, options: ProblemOpt
   const spectrumError = 32 * Number.EPSILON * 4 * Math.max(1, factored.condition);
   const source = designSource(n - design.k, operator, basis, () => fastSpectrum(operator, basis), spectrumError);
   const distribution = new DwNullDistribution(source, { method: options.method, tolerance: options.tolerance });
+  checkNotDegenerate(source, n);
   const warnings: string[] = [];
   if (factored.condition > CONDITION_WARNING) {
     warnings.push(`The design is ill-conditioned (condition number about ${factored.condition.toExponential(1)}); centring or rescaling the regressors would make the answer more robust.`);

@@ -7,7 +7,7 @@
  * leaves it out (a constant column the caller supplies still counts as an intercept).
  */
 import { DwError } from '../errors.js';
-import { householderQR, type HouseholderQR } from '../core/qr.js';
+import { applyQt, householderQR, type HouseholderQR } from '../core/qr.js';
 
 /** Name given to the intercept column the library adds. */
 export const INTERCEPT_NAME = '(intercept)';
@@ -125,6 +125,10 @@ export function buildDesign(x: RegressorInput, n: number, options: DesignOptions
   let interceptIndex = constantIdx.length === 1 ? constantIdx[0] : -1;
   let interceptAdded = false;
   if (wantIntercept && interceptIndex < 0) {
+    if (names.includes(INTERCEPT_NAME)) {
+      throw new DwError('COLUMN_REPEATED', `The column name '${INTERCEPT_NAME}' is the name of the intercept exact-dw adds.`,
+        'Rename that column, or, if it is your own constant, keep it: a constant column is used as the intercept.', { column: INTERCEPT_NAME });
+    }
     columns.unshift(new Float64Array(n).fill(1));
     names = [INTERCEPT_NAME, ...names];
     interceptIndex = 0;
@@ -175,6 +179,12 @@ export interface FactoredDesign {
   scale: Float64Array;
   /** Estimate of the condition number of P (Frobenius norms of R and R^-1; at most k times the 2-norm one). */
   condition: number;
+  /**
+   * True when the constant vector lies in col(X): a literal constant column, or columns that add up
+   * to one (a full set of seasonal dummies, say). Then the model has an intercept in effect: R^2
+   * is centred and the bounds test applies.
+   */
+  spansConstant: boolean;
 }
 
 /**
@@ -232,6 +242,9 @@ export function factorDesign(design: Design): FactoredDesign {
   const shift = new Float64Array(k);
   const scale = new Float64Array(k);
   const p = new Float64Array(n * k);
+  // a column that varies only in its last digits (centring leaves less than RANK_TOLERANCE of it)
+  // is, as far as double precision can tell, a copy of the intercept
+  const flat: number[] = [];
   for (let j = 0; j < k; j++) {
     const off = j * n;
     let top = 0;
@@ -241,9 +254,13 @@ export function factorDesign(design: Design): FactoredDesign {
     for (let i = 0; i < n; i++) p[off + i] = x[off + i] / pow;
     let mu = 0;
     if (interceptIndex >= 0 && j !== interceptIndex) {
-      for (let i = 0; i < n; i++) mu += p[off + i];
+      let before = 0;
+      for (let i = 0; i < n; i++) { mu += p[off + i]; before += p[off + i] * p[off + i]; }
       mu /= n;
-      for (let i = 0; i < n; i++) p[off + i] -= mu;
+      let after = 0;
+      for (let i = 0; i < n; i++) { p[off + i] -= mu; after += p[off + i] * p[off + i]; }
+      const ratio = Math.sqrt(after / before);
+      if (!(ratio > RANK_TOLERANCE)) flat.push(j);
     }
     let big = 0;
     for (let i = 0; i < n; i++) big = Math.max(big, Math.abs(p[off + i]));
@@ -254,6 +271,13 @@ export function factorDesign(design: Design): FactoredDesign {
     for (let i = 0; i < n; i++) p[off + i] /= unit;
     shift[j] = mu * pow;
     scale[j] = unit * pow;
+  }
+  if (flat.length > 0) {
+    const list = flat.map((j) => `'${design.names[j]}'`).join(', ');
+    throw new DwError('RANK_DEFICIENT',
+      `The design is rank deficient: ${list} ${flat.length === 1 ? 'is' : 'are'} constant up to rounding (${flat.length === 1 ? 'it varies' : 'they vary'} by less than a relative ${RANK_TOLERANCE.toExponential(0)}), so ${flat.length === 1 ? 'it duplicates' : 'they duplicate'} the intercept.`,
+      `Remove ${flat.length === 1 ? 'that column' : 'those columns'}, or subtract a constant from ${flat.length === 1 ? 'it' : 'them'} before export if the variation is real.`,
+      { column: design.names[flat[0]] });
   }
   // find every column that is (numerically) in the span of the earlier independent ones
   const bad: number[] = [];
@@ -282,7 +306,13 @@ export function factorDesign(design: Design): FactoredDesign {
       'Centre and scale the regressors (for example (year - 2005) / 10), or use orthogonal polynomials for trends; see docs/errors-and-limits.md.',
       { value: String(condition) });
   }
-  return { design, qr, shift, scale, condition };
+  // is the constant vector in col(X)? its component outside col(X), relative to its length
+  const ones = new Float64Array(n).fill(1);
+  applyQt(qr, ones);
+  let outside = 0;
+  for (let i = k; i < n; i++) outside += ones[i] * ones[i];
+  const spansConstant = interceptIndex >= 0 || Math.sqrt(outside / n) <= 1e-9;
+  return { design, qr, shift, scale, condition, spansConstant };
 }
 
 /** ||R||_F ||R^-1||_F: within a factor k of the 2-norm condition number. */
@@ -304,4 +334,21 @@ function conditionEstimate(f: HouseholderQR): number {
     for (let i = 0; i <= c; i++) normInv += col[i] ** 2;
   }
   return Math.sqrt(normR * normInv);
+}
+
+/**
+ * Number of observations in regressors given as rows or columns.
+ *
+ * @example
+ * ```ts
+ * rowCount({ t: [1, 2, 3] }); // 3
+ * ```
+ */
+export function rowCount(x: RegressorInput): number {
+  if (Array.isArray(x)) return x.length;
+  const cols = Object.values(x as Record<string, ArrayLike<number>>);
+  if (cols.length === 0) {
+    throw new DwError('OPTION_MISSING', 'With no regressor columns the number of observations must be given.', 'Pass n, or give y.');
+  }
+  return cols[0].length;
 }

@@ -153,8 +153,17 @@ export function fitLeastSquares(fd: FactoredDesign, y: ArrayLike<number>): Least
     coefficients.push({ name: names[i], estimate: b * ys + level, stdError: Math.sqrt(Math.max(0, cov[i * k + i])) });
   }
   for (let i = 0; i < n; i++) resid[i] *= ys;
-  // R^2: 1 - rss / tss (tss about the mean when the model has an intercept, where yy is it)
-  const rSquared = yy > 0 ? 1 - rssScaled / yy : NaN;
+  // R^2: 1 - rss / tss, tss about the mean when the model has an intercept in effect (yy is that
+  // when the intercept is a column; when the columns only span the constant, centre here)
+  let tss = yy;
+  if (interceptIndex < 0 && fd.spansConstant) {
+    let m = 0;
+    for (let i = 0; i < n; i++) m += yc[i] / spread;
+    m /= n;
+    tss = 0;
+    for (let i = 0; i < n; i++) tss += (yc[i] / spread - m) ** 2;
+  }
+  const rSquared = tss > 0 ? 1 - rssScaled / tss : NaN;
   return {
     coefficients,
     residuals: resid,

@@ -50,6 +50,7 @@ import { DwError } from '../errors.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis, Tail } from '../core/types.js';
 import { integrateImhof } from '../engines/imhof.js';
 import { LAMBDA_FLOOR } from '../engines/eigenfree.js';
+import { PivotProduct, smallLogDet } from '../engines/complex-ldl.js';
 import { checkRho, type ErrorProcess } from './weights.js';
 
 /**
@@ -425,9 +426,10 @@ function tridiagonalSweep(pd: Float64Array, po: Float64Array, kd: Float64Array, 
   const jR = new Float64Array(kk), jI = new Float64Array(kk);
   const finish = smallFinish(k);
   const acc = new Float64Array(2);
+  const prod = new PivotProduct();
   return (u, out) => {
     gR.fill(0); gI.fill(0); hR.fill(0); hI.fill(0); jR.fill(0); jI.fill(0);
-    let pr = 1, pim = 0, logAbs = 0, wind = 0;
+    prod.reset();
     let dpr = 1, dpi = 0;
     for (let t = 0; t < n; t++) {
       let dr = pd[t];
@@ -482,22 +484,12 @@ function tridiagonalSweep(pd: Float64Array, po: Float64Array, kd: Float64Array, 
           jI[ox + y] += br * ykI[y] + bi * ykR[y];
         }
       }
-      // running product of the pivots, with a count of turns
-      const npr = pr * dr - pim * di;
-      const npi = pr * di + pim * dr;
-      if (pim >= 0) { if (npi < 0 && di > 0) wind++; } else if (npi >= 0 && di < 0) wind--;
-      pr = npr; pim = npi;
-      const mag = Math.abs(pr) + Math.abs(pim);
-      if (mag > 1e100 || mag < 1e-100) {
-        const h = Math.hypot(pr, pim);
-        logAbs += Math.log(h);
-        pr /= h; pim /= h;
-      }
+      prod.push(dr, di, true); // running product of the pivots, with a count of turns
       dpr = dr; dpi = di;
     }
     finish(u, gR, gI, hR, hI, jR, jI, acc);
-    out[0] = logAbs + Math.log(Math.hypot(pr, pim)) + acc[0];
-    out[1] = principalArg(pr, pim) + 2 * Math.PI * wind + acc[1];
+    out[0] = prod.logModulus() + acc[0];
+    out[1] = prod.argument() + acc[1];
   };
 }
 
@@ -520,9 +512,10 @@ function bandSweep(pd: Float64Array, po: Float64Array, kb: Float64Array[],
   const jR = new Float64Array(kk), jI = new Float64Array(kk);
   const finish = smallFinish(k);
   const acc = new Float64Array(2);
+  const prod = new PivotProduct();
   return (u, out) => {
     gR.fill(0); gI.fill(0); hR.fill(0); hI.fill(0); jR.fill(0); jI.fill(0);
-    let pr = 1, pim = 0, logAbs = 0, wind = 0;
+    prod.reset();
     for (let t = 0; t < n; t++) {
       const j0 = Math.max(0, t - p);
       // W(t, col) = B(t, col) - sum_{s < col} W(t, s) L(col, s);  L(t, col) = W(t, col) / D(col)
@@ -585,20 +578,11 @@ function bandSweep(pd: Float64Array, po: Float64Array, kb: Float64Array[],
           jI[ox + y] += br * si + bi * sr;
         }
       }
-      const npr = pr * dr - pim * di;
-      const npi = pr * di + pim * dr;
-      if (pim >= 0) { if (npi < 0 && di > 0) wind++; } else if (npi >= 0 && di < 0) wind--;
-      pr = npr; pim = npi;
-      const mag = Math.abs(pr) + Math.abs(pim);
-      if (mag > 1e100 || mag < 1e-100) {
-        const h = Math.hypot(pr, pim);
-        logAbs += Math.log(h);
-        pr /= h; pim /= h;
-      }
+      prod.push(dr, di, true);
     }
     finish(u, gR, gI, hR, hI, jR, jI, acc);
-    out[0] = logAbs + Math.log(Math.hypot(pr, pim)) + acc[0];
-    out[1] = principalArg(pr, pim) + 2 * Math.PI * wind + acc[1];
+    out[0] = prod.logModulus() + acc[0];
+    out[1] = prod.argument() + acc[1];
   };
 }
 
@@ -764,14 +748,6 @@ export function chernoffTail(form: AlternativeForm, stopBelow = 0): { tail: Tail
 }
 
 /**
- * Argument in (-pi, pi] with Im >= 0 (also -0) taken as the upper half-plane, matching the turn
- * counting of the sweeps (as in src/engines/eigenfree.ts).
- */
-function principalArg(re: number, im: number): number {
-  return im >= 0 ? Math.atan2(Math.abs(im), re) : Math.atan2(im, re);
-}
-
-/**
  * The k x k end of an evaluation: log det G + log det Sigma, Sigma = -iu sym(J) + H' G^-1 H, from
  * complex LDL' factorisations without pivoting (G and Sigma are accretive), as sums of the principal
  * logarithms of the pivots. Overwrites its inputs.
@@ -781,7 +757,7 @@ function smallFinish(k: number): (u: number, gR: Float64Array, gI: Float64Array,
   const kk = k * k;
   const xR = new Float64Array(kk), xI = new Float64Array(kk);
   const sR = new Float64Array(kk), sI = new Float64Array(kk);
-  const ldl = complexLdl(k);
+  const ldl = smallLogDet(k);
   const two = new Float64Array(2);
   return (u, gR, gI, hR, hI, jR, jI, out) => {
     if (k === 0) { out[0] = 0; out[1] = 0; return; }
@@ -844,45 +820,6 @@ function smallFinish(k: number): (u: number, gR: Float64Array, gI: Float64Array,
     ldl(sR, sI, two);
     re += two[0];
     im += two[1];
-    out[0] = re;
-    out[1] = im;
-  };
-}
-
-/**
- * In-place LDL' of a k x k complex symmetric matrix (lower triangle; L strictly below the
- * diagonal, D on it) without pivoting; writes the sum of the principal logarithms of the pivots.
- */
-function complexLdl(k: number): (ar: Float64Array, ai: Float64Array, out: Float64Array) => void {
-  return (gr, gi, out) => {
-    let re = 0, im = 0;
-    for (let j = 0; j < k; j++) {
-      let dr = gr[j * k + j], di = gi[j * k + j];
-      for (let x = 0; x < j; x++) {
-        const lr = gr[j * k + x], li = gi[j * k + x];
-        const wr = lr * gr[x * k + x] - li * gi[x * k + x];
-        const wi = lr * gi[x * k + x] + li * gr[x * k + x];
-        dr -= wr * lr - wi * li;
-        di -= wr * li + wi * lr;
-      }
-      gr[j * k + j] = dr; gi[j * k + j] = di;
-      const dd = dr * dr + di * di;
-      re += 0.5 * Math.log(dd);
-      im += Math.atan2(di, dr);
-      for (let i = j + 1; i < k; i++) {
-        let vr = gr[i * k + j], vi = gi[i * k + j];
-        for (let x = 0; x < j; x++) {
-          const ar = gr[i * k + x], ai = gi[i * k + x];
-          const br = gr[j * k + x], bi = gi[j * k + x];
-          const abr = ar * br - ai * bi, abi = ar * bi + ai * br;
-          const xr = gr[x * k + x], xi = gi[x * k + x];
-          vr -= abr * xr - abi * xi;
-          vi -= abr * xi + abi * xr;
-        }
-        gr[i * k + j] = (vr * dr + vi * di) / dd;
-        gi[i * k + j] = (vi * dr - vr * di) / dd;
-      }
-    }
     out[0] = re;
     out[1] = im;
   };

@@ -35,7 +35,9 @@ import { integrateImhof, spectralForm } from '../engines/imhof.js';
 import { brentRoot } from '../distribution/root.js';
 import type { RegressorInput } from '../model/design.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from '../inference/problem.js';
-import { checkAlpha, rowCount, type Alternative, type PowerSummary } from '../inference/dw-test.js';
+import { rowCount } from '../model/design.js';
+import type { PowerSummary } from '../core/result-types.js';
+import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
 import { checkRho, powerContext, rhoFactor, weightsAt, type ErrorProcess, type PowerContext } from './weights.js';
 import { alternativeStructure, eigenfreeAlternativeTail, type AlternativeStructure } from './eigenfree-power.js';
 import { columnBasis } from '../core/qr.js';
@@ -198,10 +200,7 @@ export function powerForProblem(problem: DwProblem, options: PowerOptions): Exac
   const alpha = options.alpha ?? 0.05;
   checkAlpha(alpha);
   const target = options.target ?? 0.8;
-  const alternative = options.alternative ?? 'positive';
-  if (!['positive', 'negative', 'two-sided'].includes(alternative)) {
-    throw new DwError('OPTION_VALUE', `Unknown alternative '${alternative}'.`, 'Use positive, negative or two-sided.');
-  }
+  const alternative = checkAlternative(options.alternative ?? 'positive');
   const process = options.process ?? 'ar1';
   if (process !== 'ar1' && process !== 'seasonal') {
     throw new DwError('OPTION_VALUE', `Unknown error process '${process}'.`, 'Use ar1 or seasonal.');

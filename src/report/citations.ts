@@ -3,8 +3,9 @@
  * citations (author-year for plain text, pandoc keys for Markdown, \cite for LaTeX).
  *
  * Durbin & Watson (1950, 1951) define d and the bounds test; Imhof (1961) the numerical inversion;
- * Pan (1968) and Farebrother (1980, AS 153) the finite-range formula; Savin & White (1977) the
- * extended bounds tables; Wallis (1972) the lag-4 statistic; Durbin (1970), Breusch (1978) and
+ * Pan (1968) and Farebrother (1980, AS 153) the finite-range formula; Daniels (1954) the choice of
+ * the inversion line through the saddlepoint (the inversion itself is exact); Savin & White (1977)
+ * the extended bounds tables (cited only for cases inside them); Wallis (1972) the lag-4 statistic; Durbin (1970), Breusch (1978) and
  * Godfrey (1978) the tests for dynamic models.
  *
  * Bibliographic details (volumes, issue numbers, pages, titles) are quoted from memory: check
@@ -96,6 +97,17 @@ export const WORKS: Record<string, CitedWork> = {
     ['number', '2'],
     ['pages', '224--227'],
   ]),
+  // Cited for the choice of the integration line through the saddlepoint, not for an
+  // approximation: the saddlepoint engine inverts exactly. Volume and pages from memory.
+  'daniels-1954': article('daniels-1954', 'Daniels', 1954, [
+    ['author', 'Daniels, H. E.'],
+    ['title', 'Saddlepoint Approximations in Statistics'],
+    ['journal', 'Annals of Mathematical Statistics'],
+    ['year', '1954'],
+    ['volume', '25'],
+    ['number', '4'],
+    ['pages', '631--650'],
+  ]),
   'savin-white-1977': article('savin-white-1977', 'Savin and White', 1977, [
     ['author', 'Savin, N. E. and White, Kenneth J.'],
     ['title', 'The {Durbin-Watson} Test for Serial Correlation with Extreme Sample Sizes or Many Regressors'],
@@ -146,7 +158,28 @@ export const WORKS: Record<string, CitedWork> = {
 /** Keys of the engine's sources. */
 export function engineKeys(method: string): string[] {
   if (method === 'pan') return ['pan-1968', 'farebrother-1980'];
+  if (method === 'saddlepoint') return ['daniels-1954'];
   return ['imhof-1961']; // imhof, and eigenfree (Imhof's integral through a log-determinant)
+}
+
+/**
+ * True when Savin & White (1977) print d_L and d_U for this case, so that they can be cited as a
+ * printed source of the bounds: 6 <= n <= 200, 1 <= k' <= 20, a one-sided level of 5% or 1% (a
+ * two-sided test at 10% or 2% uses these). From memory: their tables run over n = 6..200 and
+ * k' = 1..20 at the 5% and 1% levels, with entries only where n is large enough for the bounds to
+ * exist; n >= k' + 5 is taken as that start (from memory, to be checked against the journal).
+ * Outside this range the bounds are computed exactly and lie beyond the printed tables.
+ *
+ * @example
+ * ```ts
+ * savinWhiteCovers(30, 2, 0.05);   // true
+ * savinWhiteCovers(300, 2, 0.05);  // false: n beyond the tables
+ * savinWhiteCovers(30, 2, 0.025);  // false: level not tabulated
+ * ```
+ */
+export function savinWhiteCovers(n: number, kPrime: number, level: number): boolean {
+  const tabulated = [0.05, 0.01].some((a) => Math.abs(level - a) <= 1e-12);
+  return tabulated && n >= 6 && n <= 200 && kPrime >= 1 && kPrime <= 20 && n >= kPrime + 5;
 }
 
 /** True when the report treats d as a valid test (no lagged dependent variable). */
@@ -157,7 +190,7 @@ export function dIsValid(r: DwTestResult): boolean {
 /**
  * Keys of the works a result's report cites, in the order the paragraph cites them: the statistic
  * (Durbin & Watson), the engine (unless d is not valid), the bounds tables (when the bounds are
- * shown), Wallis (lag > 1), and the tests for dynamic models (when a lagged dependent variable is
+ * shown and the case lies inside the printed tables), Wallis (lag > 1), and the tests for dynamic models (when a lagged dependent variable is
  * present).
  */
 export function citedKeys(r: DwTestResult): string[] {
@@ -165,7 +198,7 @@ export function citedKeys(r: DwTestResult): string[] {
   if (r.lag > 1) keys.push('wallis-1972');
   if (dIsValid(r)) {
     keys.push(...engineKeys(r.method));
-    if (r.bounds) keys.push('savin-white-1977');
+    if (r.bounds && savinWhiteCovers(r.n, r.bounds.kPrime, r.bounds.level)) keys.push('savin-white-1977');
   } else {
     keys.push('durbin-1970', 'breusch-1978', 'godfrey-1978');
   }

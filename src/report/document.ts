@@ -6,8 +6,8 @@
  */
 import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
 import { VERSION } from '../version.js';
-import { dIsValid } from './citations.js';
-import { andList, bound, cite, code, dFormula, estimate, fixed, level, plain, probability, prose, sym } from './format.js';
+import { dIsValid, savinWhiteCovers } from './citations.js';
+import { andList, bound, cite, code, dFormula, estimate, fixed, level, plain, probability, probabilityRelation, prose, sym } from './format.js';
 
 /** A paragraph. */
 export interface ParagraphBlock { kind: 'para'; text: string }
@@ -90,6 +90,7 @@ export function engineWords(method: string): string {
   if (method === 'imhof') return `Imhof's numerical inversion of the characteristic function, on the eigenvalues of the design ${cite('imhof-1961')}`;
   if (method === 'pan') return `Pan's finite-range formula ${cite('pan-1968', 'farebrother-1980')}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of the characteristic function, evaluated through a log-determinant without eigenvalues ${cite('imhof-1961')}`;
+  if (method === 'saddlepoint') return `exact numerical inversion of the distribution function along a line through the saddlepoint ${cite('daniels-1954')}, on the eigenvalues of the design (relative accuracy in small tails)`;
   return plain(method);
 }
 
@@ -100,6 +101,90 @@ function interceptWords(r: DwTestResult): string {
 
 function regressorNames(r: DwTestResult): string[] {
   return r.columns.filter((c, i) => !(r.interceptAdded && i === 0));
+}
+
+/**
+ * What the report says about the power: read from the result's power object, which exactDwTest
+ * fills with the ExactPower of src/power/exact-power.ts (alternative, process, criticalUpper,
+ * route, notes); a bare PowerSummary (older results) reads as the test's own alternative and AR(1).
+ */
+export interface PowerDescription {
+  alternative: DwTestResult['alternative'];
+  process: 'ar1' | 'seasonal';
+  /** The critical value(s) of the test whose power is shown. */
+  lower: number | null;
+  upper: number | null;
+  route: string | null;
+  notes: string[];
+  /** False when the rho reaching the target power was not searched for. */
+  searched: boolean;
+}
+
+/** The power object of a result in the terms the reports use. */
+export function describePower(r: DwTestResult): PowerDescription {
+  const pw = r.power!;
+  const extra = pw as Partial<{ alternative: DwTestResult['alternative']; process: 'ar1' | 'seasonal'; criticalUpper: number | null; route: string; notes: string[] }>;
+  const alternative = extra.alternative ?? r.alternative;
+  const process = extra.process ?? 'ar1';
+  const notes = Array.isArray(extra.notes) ? extra.notes : [];
+  let lower: number | null = null;
+  let upper: number | null = null;
+  if (alternative === 'positive') lower = pw.critical;
+  else if (alternative === 'negative') upper = pw.critical;
+  else { lower = pw.critical; upper = extra.criticalUpper ?? null; }
+  return {
+    alternative, process, lower, upper, route: extra.route ?? null,
+    notes, searched: !notes.some((n) => n.startsWith('The rho at which power')),
+  };
+}
+
+/** "u(t) = rho u(t - 1) + e(t)" or, for the seasonal process, "u(t) = rho u(t - 4) + e(t)". */
+export function processFormula(process: 'ar1' | 'seasonal', lag: number): string {
+  const step = process === 'seasonal' ? lag : 1;
+  return `u(t) = ${sym('rho')} u(t ${sym('minus')} ${step}) + e(t)`;
+}
+
+/** The rejection region of the test whose power is shown, e.g. "d <= 1.2046 or d >= 2.7954". */
+function powerRegion(p: PowerDescription): string {
+  const lo = p.lower !== null ? `${sym('d')} ${sym('le')} ${fixed(p.lower, D_DECIMALS)}` : null;
+  const hi = p.upper !== null ? `${sym('d')} ${sym('ge')} ${fixed(p.upper, D_DECIMALS)}` : null;
+  return [lo, hi].filter((x): x is string => x !== null).join(' or ');
+}
+
+function powerSection(r: DwTestResult): ReportSection {
+  const pw = r.power!;
+  const p = describePower(r);
+  const target = `${fixed(pw.target * 100, 0)}${sym('percent')}`;
+  const seasonal = p.process === 'seasonal';
+  const errors = seasonal ? `seasonal autoregressive errors at lag ${r.lag}` : 'AR(1) errors';
+  const rows: [string, string][] = [['Level', p.alternative === 'two-sided' ? `${level(pw.alpha)} (${level(pw.alpha / 2)} in each tail)` : level(pw.alpha)]];
+  if (p.alternative === 'two-sided') {
+    rows.push(['Exact lower critical value', p.lower !== null ? fixed(p.lower, D_DECIMALS) : 'not given']);
+    rows.push(['Exact upper critical value', p.upper !== null ? fixed(p.upper, D_DECIMALS) : 'not given']);
+  } else {
+    rows.push(['Exact critical value used', fixed(pw.critical, D_DECIMALS)]);
+  }
+  rows.push(['Rejection region', powerRegion(p)]);
+  let reach: string;
+  const range = p.alternative === 'negative' ? `between ${sym('minus')}0.99 and 0` : 'between 0 and 0.99';
+  if (!p.searched) reach = `The ${sym('rho')} at which the power reaches ${target} was not searched for.`;
+  else if (pw.rhoAtTarget !== null && pw.rhoAtTarget !== undefined) reach = `The power reaches ${target} at ${sym('rho')} = ${fixed(pw.rhoAtTarget, 3)}.`;
+  else reach = `The power does not reach ${target} for any ${sym('rho')} ${range} with this design.`;
+  const testWords = p.alternative === 'positive' ? 'the one-sided test for positive autocorrelation'
+    : p.alternative === 'negative' ? 'the one-sided test for negative autocorrelation'
+      : `the two-sided test (${level(pw.alpha / 2)} in each tail)`;
+  const blocks: ReportBlock[] = [
+    { kind: 'fields', rows },
+    {
+      kind: 'table', head: [`${seasonal ? `Seasonal (lag ${r.lag})` : 'AR(1)'} coefficient ${sym('rho')}`, 'Exact power'], align: ['r', 'r'],
+      rows: powerRows(pw.curve).map((c) => [level(c.rho), fixed(c.power, 4)]),
+    },
+    para(reach),
+    para(`Power of ${testWords}, with stationary errors ${processFormula(p.process, r.lag)}, computed exactly for this design matrix.`),
+  ];
+  const notes = p.notes.filter((n) => !n.startsWith('The rho at which power') && !n.startsWith('Power ')).map(prose);
+  if (notes.length) blocks.push({ kind: 'list', items: notes });
+  return { id: 'power', heading: `Exact power against ${errors}`, blocks };
 }
 
 /** Rows of a power curve worth printing: all when short, else about eleven evenly spread. */
@@ -113,15 +198,25 @@ export function powerRows(curve: { rho: number; power: number }[]): { rho: numbe
   return [...picked].sort((a, b) => a - b).map((i) => curve[i]);
 }
 
+/**
+ * The sentence added when |p - alpha| <= the error bound: the decision against alpha is at the
+ * numerical limit of the computation.
+ */
+export function numericalLimitWords(r: DwTestResult): string {
+  return `The ${sym('p')}-value lies within the numerical error bound (${bound(r.errorBound)}) of ${sym('alpha')}, so this decision is at the numerical limit of the computation: ` +
+    `report the ${sym('p')}-value itself rather than only the decision.`;
+}
+
 function conclusionStatic(r: DwTestResult): string {
-  const p = probability(r.pValue);
+  const { relation, number, atLimit } = probabilityRelation(r.pValue, { alpha: r.alpha, errorBound: r.errorBound });
   const a = level(r.alpha);
+  const limit = atLimit ? ` ${numericalLimitWords(r)}` : '';
   if (r.decision === 'reject') {
     return `At ${sym('alpha')} = ${a} the exact test rejects the null hypothesis of no ${nullWords(r)} in favour of ${alternativeWords(r)}: ` +
-      `${sym('p')} = ${p} ${sym('le')} ${a}, and ${sym('d')} = ${fixed(r.d, D_DECIMALS)} lies in the rejection region ${rejectionRegion(r)}.`;
+      `${sym('p')} ${relation} ${number} ${sym('le')} ${a}, and ${sym('d')} = ${fixed(r.d, D_DECIMALS)} lies in the rejection region ${rejectionRegion(r)}.${limit}`;
   }
   return `At ${sym('alpha')} = ${a} the exact test does not reject the null hypothesis of no ${nullWords(r)} against ${alternativeWords(r)}: ` +
-    `${sym('p')} = ${p} ${sym('gt')} ${a}, and ${sym('d')} = ${fixed(r.d, D_DECIMALS)} lies outside the rejection region ${rejectionRegion(r)}.`;
+    `${sym('p')} ${relation} ${number} ${sym('gt')} ${a}, and ${sym('d')} = ${fixed(r.d, D_DECIMALS)} lies outside the rejection region ${rejectionRegion(r)}.${limit}`;
 }
 
 /** What the asymptotic tests of a dynamic model say at alpha, in words. */
@@ -155,10 +250,10 @@ function dynamicSection(r: DwTestResult): ReportSection {
   const hOk = dyn.durbinH.h !== null && Number.isFinite(dyn.durbinH.h);
   const rows: string[][] = [
     [`Durbin's ${sym('h')}`, hOk ? fixed(dyn.durbinH.h as number, STAT_DECIMALS) : 'undefined',
-      hOk && dyn.durbinH.pValue !== null ? probability(dyn.durbinH.pValue) : '', hOk ? 'normal' : ''],
-    [`Breusch${sym('ndash')}Godfrey LM, order ${bg.order}`, fixed(bg.lm, STAT_DECIMALS), probability(bg.pChiSquare), `${sym('chi2')}, ${bg.order} df`],
-    [`Breusch${sym('ndash')}Godfrey, ${sym('F')} form`, fixed(bg.f, STAT_DECIMALS), probability(bg.pF), `${sym('F')}(${bg.df1}, ${bg.df2})`],
-    [`Residual on its own lag, ${sym('t')}`, fixed(dyn.residualT.t, STAT_DECIMALS), probability(dyn.residualT.pValue), 'normal'],
+      hOk && dyn.durbinH.pValue !== null ? probability(dyn.durbinH.pValue, { alpha: r.alpha }) : '', hOk ? 'normal' : ''],
+    [`Breusch${sym('ndash')}Godfrey LM, order ${bg.order}`, fixed(bg.lm, STAT_DECIMALS), probability(bg.pChiSquare, { alpha: r.alpha }), `${sym('chi2')}, ${bg.order} df`],
+    [`Breusch${sym('ndash')}Godfrey, ${sym('F')} form`, fixed(bg.f, STAT_DECIMALS), probability(bg.pF, { alpha: r.alpha }), `${sym('F')}(${bg.df1}, ${bg.df2})`],
+    [`Residual on its own lag, ${sym('t')}`, fixed(dyn.residualT.t, STAT_DECIMALS), probability(dyn.residualT.pValue, { alpha: r.alpha }), 'normal'],
   ];
   const blocks: ReportBlock[] = [
     para(`The regressors include the lagged dependent variable ${code(dyn.laggedDependent)} (${dyn.how === 'declared' ? 'declared by the caller' : 'detected from the data'}). ` +
@@ -218,13 +313,14 @@ export function buildReport(r: DwTestResult): ReportDocument {
   if (valid) {
     // 3. exact p-values
     const mark = (alt: string) => (r.alternative === alt ? 'tested' : '');
+    const pc = { alpha: r.alpha, errorBound: r.errorBound };
     sections.push({
       id: 'p-values', heading: 'Exact p-values for this design', blocks: [
         {
           kind: 'table', head: ['Alternative', 'Probability', `${sym('p')}-value`, ''], align: ['l', 'l', 'r', 'l'], rows: [
-            ['positive autocorrelation', sym('PDle'), probability(r.pPositive), mark('positive')],
-            ['negative autocorrelation', sym('PDge'), probability(r.pNegative), mark('negative')],
-            ['either sign (two-sided)', `twice the smaller tail`, probability(r.pTwoSided), mark('two-sided')],
+            ['positive autocorrelation', sym('PDle'), probability(r.pPositive, pc), mark('positive')],
+            ['negative autocorrelation', sym('PDge'), probability(r.pNegative, pc), mark('negative')],
+            ['either sign (two-sided)', `twice the smaller tail`, probability(r.pTwoSided, pc), mark('two-sided')],
           ],
         },
       ],
@@ -263,7 +359,10 @@ export function buildReport(r: DwTestResult): ReportDocument {
           { kind: 'fields', rows },
           para(prose(b.resolution)),
           para(`The bounds ${sym('dL')} and ${sym('dU')} of the classical test ${cite('durbin-watson-1950', 'durbin-watson-1951')} are computed exactly for this ${sym('n')} and ${sym('kp')}; ` +
-            `printed tables ${cite('savin-white-1977')} give the same values to three decimals. They hold for every design with an intercept and ${sym('k')} columns; the critical values above are for this one.`),
+            (savinWhiteCovers(r.n, b.kPrime, b.level)
+              ? `printed tables ${cite('savin-white-1977')} give the same values to three decimals. `
+              : `this case (${sym('n')} = ${r.n}, ${sym('kp')} = ${b.kPrime}, level ${level(b.level)}) lies beyond the printed tables, so the values above are the only source. `) +
+            `They hold for every design with an intercept and ${sym('k')} columns; the critical values above are for this one.`),
         ],
       });
     } else {
@@ -271,28 +370,7 @@ export function buildReport(r: DwTestResult): ReportDocument {
     }
 
     // 6. power
-    if (r.power) {
-      const pw = r.power;
-      const target = `${fixed(pw.target * 100, 0)}${sym('percent')}`;
-      sections.push({
-        id: 'power', heading: 'Exact power against AR(1) errors', blocks: [
-          {
-            kind: 'fields', rows: [
-              ['Level', level(pw.alpha)],
-              ['Exact critical value used', fixed(pw.critical, D_DECIMALS)],
-            ],
-          },
-          {
-            kind: 'table', head: [`AR(1) coefficient ${sym('rho')}`, 'Exact power'], align: ['r', 'r'],
-            rows: powerRows(pw.curve).map((c) => [level(c.rho), fixed(c.power, 4)]),
-          },
-          para(pw.rhoAtTarget !== null && pw.rhoAtTarget !== undefined
-            ? `The power reaches ${target} at ${sym('rho')} = ${fixed(pw.rhoAtTarget, 3)}.`
-            : `The power does not reach ${target} for any ${sym('rho')} ${sym('lt')} 1 with this design.`),
-          para(`Power of the one-sided test for positive autocorrelation, with stationary errors u(t) = ${sym('rho')} u(t ${sym('minus')} 1) + e(t), computed exactly for this design matrix.`),
-        ],
-      });
-    }
+    if (r.power) sections.push(powerSection(r));
   } else {
     const left = ['exact p-values', 'critical values', 'bounds test'];
     if (r.power) left.push('power curve');

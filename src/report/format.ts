@@ -6,6 +6,7 @@
  * (`⟨dL⟩`, `⟨alpha⟩`, `⟨sci:1.2:-4⟩`, ...). {@link inline} then turns it into one output format,
  * escaping the plain words for that format and replacing each token by its spelling there.
  */
+import { PAPER_STYLE, REPORT_STYLE, formatProbability, type FormattedProbability, type ProbabilityContext, type ProbabilityStyle } from '../core/format-number.js';
 import { citeInline } from './citations.js';
 
 /** Output formats of the renderers. */
@@ -184,29 +185,52 @@ export function scientific(x: number, digits: number): string {
   return signed(`${OPEN}sci:${mant}:${Number(exp)}${CLOSE}`, x < 0);
 }
 
+/** A plain number as printed by core/format-number.ts ("0.0312", "2.50e-7") in neutral markup. */
+function numberMarkup(value: string): string {
+  const m = /^(-?[0-9.]+)e(-?\d+)$/.exec(value);
+  return m ? `${OPEN}sci:${m[1]}:${Number(m[2])}${CLOSE}` : value;
+}
+
+function relationMarkup(relation: FormattedProbability['relation']): string {
+  return relation === '<' ? sym('lt') : relation === '>' ? sym('gt') : '=';
+}
+
 /**
- * A probability in a report: four decimals from 0.001 up, below that three significant digits in
- * scientific form; exactly 0 as "0".
+ * A probability in a report (core/format-number.ts, REPORT_STYLE): four decimals from 0.001 up,
+ * below that three significant digits in scientific form; with `alpha`, as many more digits as keep
+ * it on its side of alpha; a value clamped to 0 with an error bound > 0 as "< bound".
+ *
+ * @example
+ * ```ts
+ * inline(probability(0.05004, { alpha: 0.05 }), 'text');     // "0.05004"
+ * inline(probability(0, { errorBound: 3e-12 }), 'text');     // "< 3e-12"
+ * ```
  */
-export function probability(p: number): string {
-  if (p === 0) return '0';
-  if (p >= 0.001) return fixed(p, 4);
-  return scientific(p, 3);
+export function probability(p: number, context: ProbabilityContext = {}): string {
+  const f = formatProbability(p, REPORT_STYLE, context);
+  return f.relation === '=' ? numberMarkup(f.value) : `${relationMarkup(f.relation)} ${numberMarkup(f.value)}`;
+}
+
+/**
+ * A probability in a report as relation and number (neutral markup), for sentences such as
+ * "p = 0.0312 <= 0.05" or "p < 1e-11 <= 0.05"; `atLimit` when |p - alpha| <= the error bound.
+ */
+export function probabilityRelation(p: number, context: ProbabilityContext = {}, style: ProbabilityStyle = REPORT_STYLE): { relation: string; number: string; atLimit: boolean } {
+  const f = formatProbability(p, style, context);
+  return { relation: relationMarkup(f.relation), number: numberMarkup(f.value), atLimit: f.atLimit };
 }
 
 /** Rounding of a probability in a report, as a number (for the checks that parse reports back). */
 export const PROBABILITY_DECIMALS = 4;
 
 /**
- * A p-value for the paper: two significant digits, "< 0.001" below 0.001, "> 0.99" when two
+ * A p-value for the paper (core/format-number.ts, PAPER_STYLE): two significant digits (more when
+ * needed to stay on the side of `alpha` it lies on), "< 0.001" below 0.001, "> 0.99" when two
  * digits would round it to 1. Returns the relation and the number, e.g. ['=', '0.021'].
  */
-export function paperP(p: number): [string, string] {
-  if (p < 0.001) return [sym('lt'), '0.001'];
-  const s = p.toPrecision(2);
-  if (Number(s) >= 1) return [sym('gt'), '0.99'];
-  // toPrecision may give exponent form for tiny values; they are excluded above
-  return ['=', s];
+export function paperP(p: number, context: ProbabilityContext = {}): [string, string] {
+  const f = probabilityRelation(p, context, PAPER_STYLE);
+  return [f.relation, f.number];
 }
 
 /** An upper bound: rounded up to two significant digits in scientific form ("2.4e-12"). */

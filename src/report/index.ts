@@ -8,7 +8,7 @@ export { renderMarkdown, renderMarkdownDocument } from './markdown.js';
 export { renderLatex, renderLatexDocument, type LatexOptions } from './latex.js';
 export { renderJson } from './json.js';
 export { paperParagraph } from './paragraph.js';
-export { citations, citedKeys, citeInline, formatReference, WORKS, type CitedWork } from './citations.js';
+export { citations, citedKeys, citeInline, formatReference, savinWhiteCovers, WORKS, type CitedWork } from './citations.js';
 export { renderDensitySvg, densityCurve, plotDomain, type DensityPlotOptions, type DensityCurve } from './svg.js';
 export { buildReport, type ReportDocument, type ReportSection, type ReportBlock } from './document.js';
 export type { InlineFormat } from './format.js';

@@ -3,23 +3,45 @@
  * fixed key order (so that two runs on the same data give byte-identical files and diffs stay
  * small). Numbers are written in JavaScript's shortest round-trip form, so parsing the file gives
  * back exactly the numbers of the result; a non-finite number is written as null.
+ *
+ * A script must never read an invalid decision: the top-level `dValid` says whether d is a valid
+ * test. For a model with a lagged dependent variable (`dynamic` not null) `dValid` is false,
+ * `decision` is "not-valid", and the numbers of d's null distribution (p-values, critical values,
+ * engine, null moments, bounds zone, power) move into `dForReferenceOnly`, so that `pValue` and `decision` at
+ * the top level cannot be mistaken for a result.
  */
 import type { DwTestResult } from '../inference/dw-test.js';
 import { VERSION } from '../version.js';
+
+/** Fields that describe d as a test: moved under `dForReferenceOnly` when d is not valid. */
+const D_ONLY = [
+  'pValue', 'pPositive', 'pNegative', 'pTwoSided', 'critical', 'method', 'methodReason', 'errorBound',
+  'nullMean', 'nullVariance', 'bounds', 'power',
+] as const;
+
+const POWER_KEYS = [
+  'alpha', 'alternative', 'process', 'critical', 'criticalUpper', 'target', 'rhoAtTarget', 'curve',
+  'route', 'errorBound', 'n', 'k', 'm', 'lag', 'gaps', 'notes',
+];
 
 /** Key order of each object in the result, by path ('' is the top level, '[]' an array element). */
 const KEY_ORDER: Record<string, string[]> = {
   '': [
     'packageVersion', 'd', 'n', 'k', 'm', 'lag', 'gaps', 'intercept', 'interceptAdded', 'columns',
-    'coefficients', 'rSquared', 'alternative', 'alpha', 'pValue', 'pPositive', 'pNegative', 'pTwoSided',
+    'coefficients', 'rSquared', 'dValid', 'alternative', 'alpha', 'pValue', 'pPositive', 'pNegative', 'pTwoSided',
     'critical', 'decision', 'method', 'methodReason', 'errorBound', 'nullMean', 'nullVariance',
-    'bounds', 'power', 'dynamic', 'warnings',
+    'bounds', 'power', 'dynamic', 'dForReferenceOnly', 'warnings',
   ],
+  dForReferenceOnly: [...D_ONLY],
   'coefficients[]': ['name', 'estimate', 'stdError'],
   critical: ['lower', 'upper', 'tailLevel'],
   bounds: ['kPrime', 'level', 'dL', 'dU', 'zone', 'resolution'],
-  power: ['alpha', 'critical', 'target', 'rhoAtTarget', 'curve'],
+  power: POWER_KEYS,
   'power.curve[]': ['rho', 'power'],
+  'dForReferenceOnly.critical': ['lower', 'upper', 'tailLevel'],
+  'dForReferenceOnly.bounds': ['kPrime', 'level', 'dL', 'dU', 'zone', 'resolution'],
+  'dForReferenceOnly.power': POWER_KEYS,
+  'dForReferenceOnly.power.curve[]': ['rho', 'power'],
   dynamic: ['laggedDependent', 'how', 'durbinH', 'breuschGodfrey', 'residualT'],
   'dynamic.durbinH': ['h', 'pValue', 'reason'],
   'dynamic.breuschGodfrey': ['order', 'lm', 'pChiSquare', 'f', 'pF', 'df1', 'df2'],
@@ -50,9 +72,18 @@ function ordered(value: unknown, path: string): unknown {
  * @example
  * ```ts
  * writeFileSync('dw-result.json', renderJson(exactDwTest({ y, x })));
- * JSON.parse(renderJson(result)).pValue === result.pValue; // true
+ * JSON.parse(renderJson(result)).pValue === result.pValue; // true when d is valid
+ * JSON.parse(renderJson(dynamicResult)).decision;            // "not-valid"
  * ```
  */
 export function renderJson(r: DwTestResult): string {
-  return JSON.stringify(ordered({ packageVersion: VERSION, ...r }, ''), null, 2) + '\n';
+  const dValid = r.dynamic === null || r.dynamic === undefined;
+  const out: Record<string, unknown> = { packageVersion: VERSION, ...r, dValid };
+  if (!dValid) {
+    const ref: Record<string, unknown> = {};
+    for (const key of D_ONLY) { ref[key] = out[key]; delete out[key]; }
+    out.decision = 'not-valid';
+    out.dForReferenceOnly = ref;
+  }
+  return JSON.stringify(ordered(out, ''), null, 2) + '\n';
 }

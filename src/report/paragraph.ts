@@ -7,23 +7,24 @@
  */
 import type { DwTestResult } from '../inference/dw-test.js';
 import { VERSION } from '../version.js';
-import { dIsValid, engineKeys } from './citations.js';
-import { alternativeWords, dynamicVerdict, nullWords } from './document.js';
-import { andList, bound, cite, fixed, inline, paperP, percent, plain, sym, type InlineFormat } from './format.js';
+import { dIsValid, engineKeys, savinWhiteCovers } from './citations.js';
+import { alternativeWords, describePower, dynamicVerdict, nullWords, processFormula } from './document.js';
+import type { ProbabilityContext } from '../core/format-number.js';
+import { andList, bound, cite, fixed, inline, level, paperP, percent, plain, probabilityRelation, sym, type InlineFormat } from './format.js';
 
 /** Decimals of d, critical values and bounds in the paragraph. */
 export const PARAGRAPH_D_DECIMALS = 3;
 
 const D3 = (x: number) => fixed(x, PARAGRAPH_D_DECIMALS);
 
-function pPhrase(p: number): string {
-  const [rel, num] = paperP(p);
+function pPhrase(p: number, context: ProbabilityContext = {}): string {
+  const [rel, num] = paperP(p, context);
   return `${sym('p')} ${rel} ${num}`;
 }
 
-/** "of 0.021", "below 0.001", "above 0.99". */
-function pWords(p: number): string {
-  const [rel, num] = paperP(p);
+/** "of 0.021", "below 0.001", "above 0.99" (with more digits when needed to stay on its side of alpha). */
+function pWords(p: number, context: ProbabilityContext = {}): string {
+  const [rel, num] = paperP(p, context);
   return rel === '=' ? `of ${num}` : rel === sym('lt') ? `below ${num}` : `above ${num}`;
 }
 
@@ -41,6 +42,7 @@ function methodPhrase(method: string): string {
   const c = cite(...engineKeys(method));
   if (method === 'pan') return `Pan's finite-range representation of its distribution function ${c}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of its characteristic function, evaluated through a log-determinant ${c}`;
+  if (method === 'saddlepoint') return `exact numerical inversion of its distribution function along a line through the saddlepoint ${c}`;
   return `Imhof's numerical inversion of its characteristic function ${c}`;
 }
 
@@ -53,7 +55,10 @@ function boundsPhrase(r: DwTestResult): string {
         : zone === 'no-evidence' ? 'would have found no evidence of autocorrelation'
           : 'would have been inconclusive';
   const lvl = `${percent(b.level)}${sym('percent')} level${r.alternative === 'two-sided' ? ' in each tail' : ''}`;
-  return `For comparison, the classical bounds test ${cite('savin-white-1977')}, with ${sym('dL')} = ${D3(b.dL)} and ${sym('dU')} = ${D3(b.dU)} ` +
+  const source = savinWhiteCovers(r.n, b.kPrime, b.level)
+    ? `the classical bounds test ${cite('savin-white-1977')}`
+    : `the classical bounds test ${cite('durbin-watson-1950', 'durbin-watson-1951')}, with bounds computed exactly because this case lies beyond the printed tables`;
+  return `For comparison, ${source}, with ${sym('dL')} = ${D3(b.dL)} and ${sym('dU')} = ${D3(b.dU)} ` +
     `for ${sym('n')} = ${r.n} and ${sym('kp')} = ${b.kPrime} at the ${lvl}, ${verdict} for this value of ${sym('d')}.`;
 }
 
@@ -70,15 +75,30 @@ function staticParagraph(r: DwTestResult): string[] {
   if (r.alternative === 'positive') crit = `exact ${a} critical value ${D3(r.critical.lower)}`;
   else if (r.alternative === 'negative') crit = `exact ${a} critical value ${D3(r.critical.upper)}, rejecting for large ${sym('d')}`;
   else crit = `exact critical values ${D3(r.critical.lower)} and ${D3(r.critical.upper)}, ${percent(r.critical.tailLevel)}${sym('percent')} in each tail`;
-  s.push(`The observed ${sym('d')} = ${D3(r.d)} gives an exact ${sym('p')}-value ${pWords(r.pValue)} against the alternative of ${alternativeWords(r)} (${crit}), ` +
+  const pc = { alpha: r.alpha, errorBound: r.errorBound };
+  s.push(`The observed ${sym('d')} = ${D3(r.d)} gives an exact ${sym('p')}-value ${pWords(r.pValue, pc)} against the alternative of ${alternativeWords(r)} (${crit}), ` +
     `so the hypothesis of no ${nullWords(r)} is ${r.decision === 'reject' ? '' : 'not '}rejected at the ${a} level.`);
+  if (probabilityRelation(r.pValue, pc).atLimit) {
+    s.push(`The ${sym('p')}-value lies within the numerical error bound of ${sym('alpha')} = ${level(r.alpha)}, so this decision is at the numerical limit of the computation.`);
+  }
   if (r.bounds) s.push(boundsPhrase(r));
   if (r.power) {
     const pw = r.power;
+    const p = describePower(r);
     const target = `${fixed(pw.target * 100, 0)}${sym('percent')}`;
-    s.push(pw.rhoAtTarget !== null && pw.rhoAtTarget !== undefined
-      ? `Against stationary AR(1) errors, the exact power of the test for this design reaches ${target} at ${sym('rho')} = ${fixed(pw.rhoAtTarget, 2)}.`
-      : `Against stationary AR(1) errors, the exact power of the test for this design stays below ${target} for every ${sym('rho')} ${sym('lt')} 1.`);
+    const test = p.alternative === 'positive' ? 'the one-sided test against positive autocorrelation'
+      : p.alternative === 'negative' ? 'the one-sided test against negative autocorrelation' : 'the two-sided test';
+    const against = p.process === 'seasonal'
+      ? `Against stationary seasonal errors ${processFormula(p.process, r.lag)}`
+      : `Against stationary AR(1) errors ${processFormula(p.process, r.lag)}`;
+    const range = p.alternative === 'negative' ? `${sym('rho')} between ${sym('minus')}0.99 and 0` : `${sym('rho')} between 0 and 0.99`;
+    if (!p.searched) {
+      // the curve was computed without a target search: nothing to summarise in one sentence
+    } else {
+      s.push(pw.rhoAtTarget !== null && pw.rhoAtTarget !== undefined
+        ? `${against}, the exact power of ${test} for this design reaches ${target} at ${sym('rho')} = ${fixed(pw.rhoAtTarget, 2)}.`
+        : `${against}, the exact power of ${test} for this design stays below ${target} for every ${range}.`);
+    }
   }
   return s;
 }
@@ -98,10 +118,10 @@ function dynamicParagraph(r: DwTestResult): string[] {
     `so ${sym('d')} = ${D3(r.d)}${r.lag > 1 ? ` (differences at lag ${r.lag}; ${cite('wallis-1972')})` : ''} was not used as a test.`);
   const h = dyn.durbinH;
   const hText = h.h !== null && Number.isFinite(h.h)
-    ? `Durbin's ${sym('h')} ${cite('durbin-1970')}, ${sym('h')} = ${fixed(h.h, 2)}${h.pValue !== null ? ` (asymptotic ${pPhrase(h.pValue)})` : ''}`
+    ? `Durbin's ${sym('h')} ${cite('durbin-1970')}, ${sym('h')} = ${fixed(h.h, 2)}${h.pValue !== null ? ` (asymptotic ${pPhrase(h.pValue, { alpha: r.alpha })})` : ''}`
     : `Durbin's ${sym('h')} ${cite('durbin-1970')}, which is undefined here (${undefinedWhy(h.reason)})`;
   s.push(`Serial correlation was instead tested with ${hText}, and with the Breusch${sym('ndash')}Godfrey Lagrange-multiplier test of order ${bg.order} ` +
-    `${cite('breusch-1978', 'godfrey-1978')}, LM = ${fixed(bg.lm, 2)} (asymptotic ${sym('chi2')} ${pPhrase(bg.pChiSquare)}); ${dynamicVerdict(r, `at the ${percent(r.alpha)}${sym('percent')} level`)}.`);
+    `${cite('breusch-1978', 'godfrey-1978')}, LM = ${fixed(bg.lm, 2)} (asymptotic ${sym('chi2')} ${pPhrase(bg.pChiSquare, { alpha: r.alpha })}); ${dynamicVerdict(r, `at the ${percent(r.alpha)}${sym('percent')} level`)}.`);
   return s;
 }
 

@@ -1,8 +1,8 @@
 /**
- * An SVG figure of the exact null density of d for the caller's design: the density is the
- * derivative of the exact CDF by differentiating Imhof's (1961) inversion formula
- * (DwNullDistribution.pdf), evaluated on a uniform grid that is refined until the trapezoid
- * integral of the drawn points has converged; it is not a histogram. The observed d, the exact
+ * An SVG figure of the exact null density of d for the caller's design. The numbers (the density
+ * on a grid refined until its trapezoid integral converges, the plotted range, the density at the
+ * marks) come from src/distribution/density-grid.ts; this file only draws them. It is not a
+ * histogram. The observed d, the exact
  * critical value(s) and the bounds d_L, d_U are marked, and the rejection region is hatched over
  * grey, so that the figure reads in black and white (every line differs in style, not in colour).
  */
@@ -10,8 +10,12 @@ import { DwError } from '../errors.js';
 import type { DwTestResult } from '../inference/dw-test.js';
 import type { DwNullDistribution } from '../distribution/null-distribution.js';
 import { VERSION } from '../version.js';
+import { densityCurve, densityRange, type DensityCurve } from '../distribution/density-grid.js';
 import { dIsValid } from './citations.js';
 import { linearScale, niceStep, polylinePath, stepDecimals, svgNumber, tickValues, xmlEscape } from './scale.js';
+
+/** Re-exported for callers of the report module; computed in src/distribution/density-grid.ts. */
+export { densityCurve, type DensityCurve };
 
 /** Options of {@link renderDensitySvg}. */
 export interface DensityPlotOptions {
@@ -35,102 +39,17 @@ export interface DensityPlotOptions {
   xmlDeclaration?: boolean;
 }
 
-/** The density drawn in the figure, in data coordinates. */
-export interface DensityCurve {
-  /** Points of the curve, ascending in x; zero outside the support of d. */
-  x: Float64Array;
-  y: Float64Array;
-  /** The plotted range of d. */
-  domain: [number, number];
-  /** Exact probability that d falls outside the plotted range (from the CDF). */
-  outsideMass: number;
-  /** Uniform intervals over the part of the support inside the plotted range. */
-  intervals: number;
-  /** Trapezoid integral of the curve. */
-  trapezoid: number;
-  /** True when the last doubling of the grid changed the integral by less than the tolerance. */
-  converged: boolean;
-}
-
-/** Bounds of d for any lag: 0 <= d <= 4. */
-const D_MIN = 0;
-const D_MAX = 4;
-
 /**
- * The plotted range: the exact mean +/- 6 standard deviations, widened to hold every mark and
- * until the exact mass outside is below 1e-9, then rounded out to whole axis steps.
+ * The plotted range: densityRange of src/distribution/density-grid.ts (the statistics) rounded
+ * out to whole axis steps (the drawing).
  */
 export function plotDomain(dist: DwNullDistribution, marks: number[]): { domain: [number, number]; step: number } {
-  const [s0, s1] = dist.support;
-  const mean = dist.mean;
-  const sd = Math.sqrt(dist.variance);
-  let lo = Math.max(s0, mean - 6 * sd);
-  let hi = Math.min(s1, mean + 6 * sd);
-  for (const v of marks) {
-    if (!Number.isFinite(v)) continue;
-    lo = Math.min(lo, v - 0.3 * sd);
-    hi = Math.max(hi, v + 0.3 * sd);
-  }
-  for (let i = 0; i < 40; i++) {
-    const out = (lo > s0 ? dist.cdf(lo) : 0) + (hi < s1 ? dist.sf(hi) : 0);
-    if (out <= 1e-9) break;
-    lo = Math.max(s0, lo - 0.5 * sd);
-    hi = Math.min(s1, hi + 0.5 * sd);
-  }
-  lo = Math.max(D_MIN, lo);
-  hi = Math.min(D_MAX, hi);
+  const [lo, hi] = densityRange(dist, marks);
   const step = niceStep(hi - lo, 6);
   const dec = stepDecimals(step);
-  const d0 = Math.max(D_MIN, Number((Math.floor(lo / step + 1e-9) * step).toFixed(dec)));
-  const d1 = Math.min(D_MAX, Number((Math.ceil(hi / step - 1e-9) * step).toFixed(dec)));
+  const d0 = Math.max(0, Number((Math.floor(lo / step + 1e-9) * step).toFixed(dec)));
+  const d1 = Math.min(4, Number((Math.ceil(hi / step - 1e-9) * step).toFixed(dec)));
   return { domain: [d0, d1], step };
-}
-
-/**
- * The exact density of d over `domain` on a uniform grid over the support inside it, doubled
- * until the trapezoid integral settles (Euler-Maclaurin: on a uniform grid the error of the
- * trapezoid rule for a density that vanishes smoothly at both ends falls much faster than h^2).
- *
- * @example
- * ```ts
- * const c = densityCurve(dist, [0.5, 3.5]);
- * c.trapezoid + c.outsideMass; // 1 within about 1e-8 for m >= 6
- * ```
- */
-export function densityCurve(dist: DwNullDistribution, domain: [number, number], tolerance = 2e-8, maxIntervals = 8192): DensityCurve {
-  const [s0, s1] = dist.support;
-  const a = Math.max(domain[0], s0);
-  const b = Math.min(domain[1], s1);
-  if (!(b > a)) throw new RangeError('densityCurve: the plotted range misses the support');
-  const outsideMass = (a > s0 ? dist.cdf(a) : 0) + (b < s1 ? dist.sf(b) : 0);
-  let n = 256;
-  let ys = new Float64Array(n + 1);
-  for (let i = 0; i <= n; i++) ys[i] = dist.pdf(a + ((b - a) * i) / n);
-  const trap = (v: Float64Array, h: number) => {
-    let s = 0.5 * (v[0] + v[v.length - 1]);
-    for (let i = 1; i < v.length - 1; i++) s += v[i];
-    return s * h;
-  };
-  let t = trap(ys, (b - a) / n);
-  let converged = false;
-  while (n < maxIntervals) {
-    const m = 2 * n;
-    const next = new Float64Array(m + 1);
-    for (let i = 0; i <= n; i++) next[2 * i] = ys[i];
-    for (let i = 0; i < n; i++) next[2 * i + 1] = dist.pdf(a + ((b - a) * (2 * i + 1)) / m);
-    const t2 = trap(next, (b - a) / m);
-    const change = Math.abs(t2 - t);
-    ys = next;
-    n = m;
-    t = t2;
-    if (change <= tolerance && n >= 512) { converged = true; break; }
-  }
-  const xs: number[] = [];
-  const yv: number[] = [];
-  if (domain[0] < a) { xs.push(domain[0]); yv.push(0); }
-  for (let i = 0; i <= n; i++) { xs.push(a + ((b - a) * i) / n); yv.push(ys[i]); }
-  if (domain[1] > b) { xs.push(domain[1]); yv.push(0); }
-  return { x: Float64Array.from(xs), y: Float64Array.from(yv), domain, outsideMass, intervals: n, trapezoid: t, converged };
 }
 
 /** A piece of a label: plain, italic (a symbol), or a subscript. */
@@ -245,7 +164,16 @@ export function renderDensitySvg(result: DwTestResult, distribution: DwNullDistr
   const id = options.idPrefix ?? 'exact-dw';
   const marks = marksOf(result);
   const { domain, step } = plotDomain(dist, marks.map((m) => m.value));
-  const curve = densityCurve(dist, domain, options.tolerance, options.maxIntervals);
+  // the density at the ends of the shaded regions and at the observed d, computed with the curve
+  const lowerEnd = Math.min(result.critical.lower, domain[1]);
+  const upperStart = Math.max(result.critical.upper, domain[0]);
+  const extra = [domain[0], lowerEnd, upperStart, domain[1], result.d];
+  const curve = densityCurve(dist, domain, options.tolerance, options.maxIntervals, extra);
+  const densityOf = (v: number): number => {
+    const i = extra.indexOf(v);
+    if (i < 0) throw new RangeError('renderDensitySvg: density asked at a point not computed');
+    return curve.atPoints[i];
+  };
 
   // y range: the largest density drawn (for m <= 2 the density is unbounded at the ends of the
   // support; then the axis stops at a high quantile of the drawn values and the curve is clipped)
@@ -338,7 +266,7 @@ export function renderDensitySvg(result: DwTestResult, distribution: DwNullDistr
     const px: number[] = [];
     const py: number[] = [];
     px.push(xs(from)); py.push(ys(0));
-    const yAt = (v: number) => (v <= dist.support[0] || v >= dist.support[1] ? 0 : dist.pdf(v));
+    const yAt = densityOf;
     px.push(xs(from)); py.push(ys(yAt(from)));
     for (let i = 0; i < curve.x.length; i++) {
       if (curve.x[i] > from && curve.x[i] < to) { px.push(xs(curve.x[i])); py.push(ys(curve.y[i])); }
@@ -347,8 +275,8 @@ export function renderDensitySvg(result: DwTestResult, distribution: DwNullDistr
     px.push(xs(to)); py.push(ys(0));
     out.push(`<path id="${id}-${rid}" d="${polylinePath(px, py, 2)} Z" fill="url(#${id}-hatch)" stroke="none" clip-path="url(#${id}-panel)"/>`);
   };
-  if (result.alternative !== 'negative' && result.critical.lower > domain[0]) region('rejection-lower', domain[0], Math.min(result.critical.lower, domain[1]));
-  if (result.alternative !== 'positive' && result.critical.upper < domain[1]) region('rejection-upper', Math.max(result.critical.upper, domain[0]), domain[1]);
+  if (result.alternative !== 'negative' && result.critical.lower > domain[0]) region('rejection-lower', domain[0], lowerEnd);
+  if (result.alternative !== 'positive' && result.critical.upper < domain[1]) region('rejection-upper', upperStart, domain[1]);
 
   // the density
   const cx = Array.from(curve.x, xs);
@@ -389,7 +317,7 @@ export function renderDensitySvg(result: DwTestResult, distribution: DwNullDistr
     out.push(`<g id="${id}-${m.id}" class="mark mark-${m.kind}">`);
     out.push(`<line x1="${px}" y1="${n2(bottom)}" x2="${px}" y2="${n2(labelY - fs * 0.75)}" ${STYLE[m.kind]}/>`);
     if (m.kind === 'observed') {
-      const yd = m.value > dist.support[0] && m.value < dist.support[1] ? dist.pdf(m.value) : 0;
+      const yd = densityOf(m.value);
       out.push(`<circle cx="${px}" cy="${n2(ys(Math.min(yd, ytop)))}" r="3.2" fill="#000"/>`);
     }
     out.push(`<text x="${n2(x + 3)}" y="${n2(labelY)}">${pieces(m.label, fs)}</text>`);

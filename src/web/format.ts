@@ -1,24 +1,31 @@
 /**
  * How the page writes numbers. A probability keeps four decimals down to 1e-4 and three
- * significant digits below, in e-notation that a spreadsheet reads back; statistics keep four
- * decimals. The browser test reads the shown text back and compares it with the library's value
- * to this precision.
+ * significant digits below, in e-notation that a spreadsheet reads back (the one rule of
+ * src/core/format-number.ts, PAGE_STYLE: more digits when needed to stay on its side of alpha, and
+ * "< bound" for a value clamped to 0); statistics keep four decimals. The browser test reads the
+ * shown text back and compares it with the library's value to this precision.
  */
+import { PAGE_STYLE, formatProbability as formatWith, type ProbabilityContext } from '../core/format-number.js';
 
 /**
- * A probability for display.
+ * A probability for display; with `alpha`, as many more digits as keep it on its side of alpha;
+ * with an `errorBound`, a value clamped to 0 shows as "< bound".
  *
  * @example
  * ```ts
- * formatProbability(0.031234); // '0.0312'
- * formatProbability(2.5e-7);   // '2.50e-7'
+ * formatProbability(0.031234);                  // '0.0312'
+ * formatProbability(2.5e-7);                    // '2.50e-7'
+ * formatProbability(0.05004, { alpha: 0.05 });  // '0.05004'
+ * formatProbability(0, { errorBound: 2e-12 });  // '< 2e-12'
  * ```
  */
-export function formatProbability(p: number): string {
-  if (!Number.isFinite(p)) return String(p);
-  if (p === 0) return '0';
-  if (p >= 1e-4) return p.toFixed(4);
-  return p.toExponential(2).replace('e+', 'e');
+export function formatProbability(p: number, context: ProbabilityContext = {}): string {
+  return formatWith(p, PAGE_STYLE, context).text;
+}
+
+/** True when |p - alpha| <= errorBound: the decision against alpha is at the numerical limit. */
+export function atNumericalLimit(p: number, alpha: number, errorBound: number): boolean {
+  return formatWith(p, PAGE_STYLE, { alpha, errorBound }).atLimit;
 }
 
 /**

@@ -8,7 +8,7 @@ import { INTERCEPT_NAME } from '../model/design.js';
 import { capabilities, type ReportExtras } from './adapter.js';
 import { copyText, h, placeSvg, saveText } from './dom.js';
 import type { OptionalPart, PlainError } from './protocol.js';
-import { formatBound, formatLevel, formatNumber, formatProbability, formatStatistic } from './format.js';
+import { atNumericalLimit, formatBound, formatLevel, formatNumber, formatProbability, formatStatistic } from './format.js';
 
 const ALTERNATIVE_WORDS = {
   positive: 'positive autocorrelation',
@@ -69,17 +69,36 @@ function saveButton(label: string, fileName: string, type: string, text: string,
 
 function verdict(r: DwTestResult): HTMLElement {
   const alt = ALTERNATIVE_WORDS[r.alternative];
-  const p = formatProbability(r.pValue);
+  const p = formatProbability(r.pValue, { alpha: r.alpha, errorBound: r.errorBound });
   const level = formatLevel(r.alpha);
+  const limit = atNumericalLimit(r.pValue, r.alpha, r.errorBound)
+    ? ` The p-value lies within the numerical error bound (${formatBound(r.errorBound)}) of the level, so this decision is at the numerical limit of the computation.`
+    : '';
   if (r.dynamic) {
     return h('p', { class: 'verdict invalid', id: 'verdict' },
       `d is not a valid test here: the regressor '${r.dynamic.laggedDependent}' is the dependent variable lagged. `,
       'Use the tests shown below instead.');
   }
   const text = r.decision === 'reject'
-    ? `The exact test rejects "no autocorrelation" in favour of ${alt} at level ${level} (p = ${p}).`
-    : `The exact test does not reject "no autocorrelation" against ${alt} at level ${level} (p = ${p}).`;
+    ? `The exact test rejects "no autocorrelation" in favour of ${alt} at level ${level} (p ${pRelation(p)}).${limit}`
+    : `The exact test does not reject "no autocorrelation" against ${alt} at level ${level} (p ${pRelation(p)}).${limit}`;
   return h('p', { class: `verdict ${r.decision}`, id: 'verdict' }, h('strong', {}, `d = ${formatStatistic(r.d)}. `), text);
+}
+
+/** "= 0.0312" or "< 1e-11" after "p". */
+function pRelation(text: string): string {
+  return /^[<>]/.test(text) ? text : `= ${text}`;
+}
+
+/** The engine in words, as in the reports. */
+export function engineDescription(method: string): string {
+  switch (method) {
+    case 'imhof': return "Imhof's inversion of the characteristic function (Imhof 1961)";
+    case 'pan': return "Pan's finite-range formula (Pan 1968; Farebrother 1980)";
+    case 'eigenfree': return "Imhof's inversion through a log-determinant, without eigenvalues (Imhof 1961)";
+    case 'saddlepoint': return 'exact numerical inversion along a line through the saddlepoint (Daniels 1954)';
+    default: return method;
+  }
 }
 
 function statisticCard(r: DwTestResult): HTMLElement {
@@ -97,15 +116,16 @@ function statisticCard(r: DwTestResult): HTMLElement {
 
 function pValueCard(r: DwTestResult): HTMLElement {
   const mark = (alt: DwTestResult['alternative']): string | undefined => (r.alternative === alt ? '(your alternative)' : undefined);
+  const pc = { alpha: r.alpha, errorBound: r.errorBound };
   const chosen = h('p', { class: 'headline' }, 'p-value for your alternative: ',
-    h('span', { class: 'num big', 'data-field': 'p-value' }, formatProbability(r.pValue)),
+    h('span', { class: 'num big', 'data-field': 'p-value' }, formatProbability(r.pValue, pc)),
     r.dynamic ? h('span', { class: 'note' }, ' (not a valid test for this model: see the tests above)') : null);
   return card('Exact p-values', chosen, dl([
-    pair('P(D \u2264 d): positive', formatProbability(r.pPositive), 'p-positive', mark('positive')),
-    pair('P(D \u2265 d): negative', formatProbability(r.pNegative), 'p-negative', mark('negative')),
-    pair('two-sided', formatProbability(r.pTwoSided), 'p-two-sided', mark('two-sided')),
+    pair('P(D \u2264 d): positive', formatProbability(r.pPositive, pc), 'p-positive', mark('positive')),
+    pair('P(D \u2265 d): negative', formatProbability(r.pNegative, pc), 'p-negative', mark('negative')),
+    pair('two-sided', formatProbability(r.pTwoSided, pc), 'p-two-sided', mark('two-sided')),
     pair('numerical error below', formatBound(r.errorBound), 'error-bound'),
-    pair('engine', r.method, 'method', r.methodReason ? `(${r.methodReason})` : undefined),
+    pair('engine', r.method, 'method', `${engineDescription(r.method)}${r.methodReason ? ` (${r.methodReason})` : ''}`),
   ]));
 }
 
@@ -166,7 +186,7 @@ function powerPanel(r: DwTestResult, extras: ReportExtras, rho: number | null, f
       h('table', { class: 'small-table' }, h('caption', {}, `Power curve at level ${formatLevel(r.power.alpha)}`),
         h('thead', {}, h('tr', {}, h('th', { scope: 'col' }, '\u03c1'), h('th', { scope: 'col' }, 'power'))), h('tbody', {}, ...rows)),
       h('p', {}, r.power.rhoAtTarget === null
-        ? `Power ${r.power.target} is not reached for any \u03c1 below 1.`
+        ? `Power ${r.power.target} is not reached for any \u03c1 with |\u03c1| \u2264 0.99.`
         : `Power reaches ${r.power.target} at \u03c1 = ${formatStatistic(r.power.rhoAtTarget, 3)}.`),
     );
   }
@@ -183,16 +203,16 @@ function dynamicPanel(r: DwTestResult): HTMLElement | null {
   if (!dy) return null;
   const hText = dy.durbinH.h === null
     ? `Durbin's h is undefined here: ${dy.durbinH.reason}`
-    : `Durbin's h = ${formatStatistic(dy.durbinH.h, 3)}, p = ${formatProbability(dy.durbinH.pValue ?? NaN)} (asymptotic).`;
+    : `Durbin's h = ${formatStatistic(dy.durbinH.h, 3)}, p = ${formatProbability(dy.durbinH.pValue ?? NaN, { alpha: r.alpha })} (asymptotic).`;
   const bg = dy.breuschGodfrey;
   return h('section', { class: 'panel warning', id: 'dynamic-panel' },
     h('h3', {}, 'A lagged dependent variable: use these tests'),
     h('p', {}, `The regressor '${dy.laggedDependent}' is y lagged one period (${dy.how}). Then d is biased towards 2 and its p-value is not a test.`),
     h('ul', {},
       h('li', {}, hText),
-      h('li', {}, `Breusch-Godfrey, order ${bg.order}: LM = ${formatStatistic(bg.lm, 3)}, p = ${formatProbability(bg.pChiSquare)} (chi-square); `
-        + `F = ${formatStatistic(bg.f, 3)}, p = ${formatProbability(bg.pF)} (F with ${bg.df1} and ${bg.df2} df); asymptotic.`),
-      h('li', {}, `Residual on its own lag: t = ${formatStatistic(dy.residualT.t, 3)}, p = ${formatProbability(dy.residualT.pValue)} (asymptotic).`),
+      h('li', {}, `Breusch-Godfrey, order ${bg.order}: LM = ${formatStatistic(bg.lm, 3)}, p = ${formatProbability(bg.pChiSquare, { alpha: r.alpha })} (chi-square); `
+        + `F = ${formatStatistic(bg.f, 3)}, p = ${formatProbability(bg.pF, { alpha: r.alpha })} (F with ${bg.df1} and ${bg.df2} df); asymptotic.`),
+      h('li', {}, `Residual on its own lag: t = ${formatStatistic(dy.residualT.t, 3)}, p = ${formatProbability(dy.residualT.pValue, { alpha: r.alpha })} (asymptotic).`),
     ));
 }
 

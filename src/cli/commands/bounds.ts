@@ -2,7 +2,7 @@
 import { DwError } from '../../errors.js';
 import { bounds } from '../../bounds/bounds.js';
 import { boundsZone } from '../../bounds/zone.js';
-import type { Alternative } from '../../inference/dw-test.js';
+import type { Alternative } from '../../core/alternative.js';
 import { choiceOption, integerOption, methodOption, numberOption } from '../args.js';
 import type { Command } from './command.js';
 

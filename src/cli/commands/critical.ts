@@ -1,6 +1,6 @@
 /** `exact-dw critical`: exact critical values of d at level alpha for a design. */
 import { prepareProblem } from '../../inference/problem.js';
-import { checkAlpha } from '../../inference/dw-test.js';
+import { checkAlpha } from '../../core/alternative.js';
 import { choiceOption, numberOption, required } from '../args.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions } from '../shared.js';
 import type { Command } from './command.js';
@@ -32,8 +32,8 @@ export const criticalCommand: Command = {
     } else {
       io.out([
         `Exact critical values of d at alpha = ${alpha} (n = ${n}, k = ${k} columns including any intercept)`,
-        `  lower ${lower.toFixed(4)}: reject for positive autocorrelation when d < ${lower.toFixed(4)}`,
-        `  upper ${upper.toFixed(4)}: reject for negative autocorrelation when d > ${upper.toFixed(4)}`,
+        `  lower ${lower.toFixed(4)}: reject for positive autocorrelation when d <= ${lower.toFixed(4)}`,
+        `  upper ${upper.toFixed(4)}: reject for negative autocorrelation when d >= ${upper.toFixed(4)}`,
         '',
       ].join('\n'));
     }

@@ -44,7 +44,7 @@ export function freshFolder(base: string): string {
   try {
     mkdirSync(parent, { recursive: true });
   } catch (err) {
-    throw new DwError('FILE_UNREADABLE', `The folder '${parent}' cannot be created (${(err as NodeJS.ErrnoException).code ?? 'error'}).`, 'Choose another place with --dir.', { file: parent });
+    throw new DwError('FILE_UNWRITABLE', `The folder '${parent}' cannot be created (${(err as NodeJS.ErrnoException).code ?? 'error'}).`, 'Choose another place with --dir.', { file: parent });
   }
   for (let i = 1; i <= 999; i++) {
     const path = i === 1 ? base : `${base}-${i}`;
@@ -54,7 +54,7 @@ export function freshFolder(base: string): string {
     } catch (err) {
       const code = (err as NodeJS.ErrnoException).code;
       if (code === 'EEXIST') continue;
-      throw new DwError('FILE_UNREADABLE', `The folder '${path}' cannot be created (${code ?? 'error'}).`, 'Choose another place with --dir.', { file: path });
+      throw new DwError('FILE_UNWRITABLE', `The folder '${path}' cannot be created (${code ?? 'error'}).`, 'Choose another place with --dir.', { file: path });
     }
   }
   throw new DwError('FILE_EXISTS', `The folders '${base}' to '${base}-999' all exist.`, 'Remove old demo folders or choose another --dir.', { file: base });

@@ -5,7 +5,7 @@
  */
 import { DwError } from '../../errors.js';
 import { numericColumn } from '../../data/csv.js';
-import type { Alternative } from '../../inference/dw-test.js';
+import type { Alternative } from '../../core/alternative.js';
 import { dynamicModelCheck, serialCorrelationTests, type DynamicDiagnosis, type SerialTests } from '../../dynamic/serial-tests.js';
 import { choiceOption, integerOption, required } from '../args.js';
 import { CSV_OPTIONS, chooseRegressors, formatP, loadTable } from '../shared.js';

@@ -54,19 +54,28 @@ export function parseRhoList(text: string): number[] {
   return out;
 }
 
+/** rho with the fewest decimals (at least three) that give it back exactly, e.g. 0.999999 -> "0.999999". */
+function rhoDigits(r: number): string {
+  for (let dec = 3; dec <= 15; dec++) if (Number(r.toFixed(dec)) === r) return r.toFixed(dec);
+  return String(r);
+}
+
 function powerText(p: ReturnType<typeof powerForProblem>): string {
-  const test = p.alternative === 'positive' ? `reject when d < ${p.critical.toFixed(4)}`
-    : p.alternative === 'negative' ? `reject when d > ${p.critical.toFixed(4)}`
-      : `reject when d < ${p.critical.toFixed(4)} or d > ${(p.criticalUpper as number).toFixed(4)}`;
+  const test = p.alternative === 'positive' ? `reject when d <= ${p.critical.toFixed(4)}`
+    : p.alternative === 'negative' ? `reject when d >= ${p.critical.toFixed(4)}`
+      : `reject when d <= ${p.critical.toFixed(4)} or d >= ${(p.criticalUpper as number).toFixed(4)}`;
+  // rho as given (at least three decimals), so that 0.999999 is not printed as 1.000
+  const rhoText = rhoDigits;
+  const width = Math.max(6, ...p.curve.map((pt) => rhoText(pt.rho).length));
   const what = p.process === 'ar1' ? 'AR(1) errors u_t = rho u_{t-1} + e_t' : `errors u_t = rho u_{t-${p.lag}} + e_t`;
   const lines = [
     `Exact power of the ${p.lag > 1 ? `lag-${p.lag} ` : ''}Durbin-Watson test (n = ${p.n}, k = ${p.k} columns including any intercept)`,
     `  test: alternative ${p.alternative}, size ${p.alpha}: ${test}`,
     `  against stationary ${what}`,
     '',
-    '     rho     power',
+    `  ${'rho'.padStart(width)}   power`,
   ];
-  for (const pt of p.curve) lines.push(`  ${pt.rho.toFixed(3).padStart(6)}   ${pt.power.toFixed(4)}`);
+  for (const pt of p.curve) lines.push(`  ${rhoText(pt.rho).padStart(width)}   ${pt.power.toFixed(4)}`);
   lines.push('');
   const searched = !p.notes.some((n) => n.startsWith('The rho at which power'));
   if (!searched) {

@@ -3,7 +3,7 @@ import { DwError } from '../../errors.js';
 import { durbinWatson } from '../../core/difference.js';
 import { numericColumn } from '../../data/csv.js';
 import { prepareProblem } from '../../inference/problem.js';
-import { pValuesFor } from '../../inference/dw-test.js';
+import { checkResiduals, pValuesFor } from '../../inference/dw-test.js';
 import { choiceOption, numberOption, required } from '../args.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, formatP, loadTable, problemOptions } from '../shared.js';
 import type { Command } from './command.js';
@@ -39,13 +39,14 @@ export const pvalueCommand: Command = {
     } else {
       const et = loadTable(io, values.residuals as string, values);
       if (et.headers.length !== 1) {
-        throw new DwError('CSV_RAGGED', `The residuals file has ${et.headers.length} columns; it must have exactly one.`, 'Keep only the residual column.');
+        throw new DwError('OPTION_VALUE', `The residuals file has ${et.headers.length} columns; it must have exactly one.`, 'Keep only the residual column.');
       }
       if (et.rows.length !== n) {
         throw new DwError('LENGTH_MISMATCH', `The residuals file has ${et.rows.length} rows but the design has ${n}.`, 'Use residuals from a fit on this same design.');
       }
-      const e = numericColumn(et, et.headers[0]);
-      d = durbinWatson(e, problem.pairs);
+      const checked = checkResiduals(problem, numericColumn(et, et.headers[0]));
+      for (const w of checked.warnings) io.err(`exact-dw: note: ${w}\n`);
+      d = durbinWatson(checked.residuals, problem.pairs);
     }
     const p = pValuesFor(problem, d);
     if (format === 'json') {
@@ -54,9 +55,9 @@ export const pvalueCommand: Command = {
     } else {
       io.out([
         `d = ${p.d.toFixed(4)}   (n = ${p.n}, k = ${p.k} columns including any intercept)`,
-        `  P(D <= d), positive autocorrelation:  ${formatP(p.pPositive)}`,
-        `  P(D >= d), negative autocorrelation:  ${formatP(p.pNegative)}`,
-        `  two-sided:                            ${formatP(p.pTwoSided)}`,
+        `  P(D <= d), positive autocorrelation:  ${formatP(p.pPositive, { errorBound: p.errorBound })}`,
+        `  P(D >= d), negative autocorrelation:  ${formatP(p.pNegative, { errorBound: p.errorBound })}`,
+        `  two-sided:                            ${formatP(p.pTwoSided, { errorBound: p.errorBound })}`,
         `  engine ${p.method}, absolute error below ${p.errorBound.toExponential(1)}`,
         '',
       ].join('\n'));
