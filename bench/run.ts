@@ -18,7 +18,7 @@ import { Matrix, EigenvalueDecomposition } from 'ml-matrix';
 import { differenceMatrix, differencePairs, bandToDense } from '../src/core/difference.js';
 import { columnBasis } from '../src/core/qr.js';
 import { denseSpectrum } from '../src/core/spectrum.js';
-import { fastSpectrum } from '../src/core/fast-spectrum.js';
+import { fastSpectrum, FAST_SPECTRUM_MAX_N } from '../src/core/fast-spectrum.js';
 import { imhofTail, integrateImhof } from '../src/engines/imhof.js';
 import { panTail, panApplicable } from '../src/engines/pan.js';
 import { eigenfreeForm } from '../src/engines/eigenfree.js';
@@ -33,6 +33,15 @@ const QUICK = argv.includes('--quick');
 
 function normal(seed: number): () => number {
   return seededNormal(seed);
+}
+
+/**
+ * The point at which p-values are timed: near the 5% lower critical value of a test at this n
+ * (d is about 2 with standard deviation about 2 / sqrt(n)), where a user's d lands when the answer
+ * matters. A fixed point such as 1.9 would sit 16 standard deviations out at n = 100000.
+ */
+function point(n: number): number {
+  return 2 - 3.3 / Math.sqrt(n);
 }
 
 /** A k = 5 design: intercept, trend and three seeded regressors. */
@@ -86,7 +95,7 @@ function table(head: string[], rows: string[][]): string {
 if (argv[0] === '--peak') {
   const n = Number(argv[1]);
   const { a, basis } = design(n);
-  const r = integrateImhof(eigenfreeForm(a, basis, 1.9), { tolerance: 1e-11 });
+  const r = integrateImhof(eigenfreeForm(a, basis, point(n)), { tolerance: 1e-11 });
   const rss = process.resourceUsage().maxRSS; // kilobytes
   process.stdout.write(JSON.stringify({ n, p: r.p, errorBound: r.errorBound, maxRssMiB: rss / 1024 }) + '\n');
   process.exit(0);
@@ -103,7 +112,7 @@ say(`Measured by \`npm run bench\` (bench/run.ts) on ${cpus()[0]?.model ?? 'unkn
 say('');
 
 // ---------- 1. engines ----------
-say('## 1. Time per p-value by engine (k = 5, c = 1.9, both tails would double it)');
+say('## 1. Time per p-value by engine (k = 5, c = 2 - 3.3/sqrt(n), near the 5% point; both tails would double it)');
 say('');
 const rows1: string[][] = [];
 const autoRows: string[][] = [];
@@ -113,24 +122,24 @@ for (const n of sizes) {
   const reps = repsFor(n);
   let nu: Float64Array | null = null;
   let spectrumMs: number | null = null;
-  if (n <= 20000) {
+  if (n <= FAST_SPECTRUM_MAX_N) {
     spectrumMs = time(() => { nu = fastSpectrum(a, basis); }, n >= 4000 ? 1 : reps);
   }
   const err: Record<string, number> = {};
   let imhofMs: number | null = null;
   let panMs: number | null = null;
-  if (nu !== null && n <= 20000) {
+  if (nu !== null) {
     const s: Float64Array = nu;
-    imhofMs = time(() => { err.imhof = imhofTail(s, 1.9, 'lower').errorBound; }, n >= 4000 ? 1 : reps);
-    if (panApplicable(s, 1.9).ok) panMs = time(() => { err.pan = panTail(s, 1.9, 'lower').errorBound; }, n >= 4000 ? 1 : reps);
+    imhofMs = time(() => { err.imhof = imhofTail(s, point(n), 'lower').errorBound; }, n >= 4000 ? 1 : reps);
+    if (panApplicable(s, point(n)).ok) panMs = time(() => { err.pan = panTail(s, point(n), 'lower').errorBound; }, n >= 4000 ? 1 : reps);
   }
-  const eigenfreeMs = time(() => { err.eigenfree = integrateImhof(eigenfreeForm(a, basis, 1.9)).errorBound; }, n >= 20000 ? 1 : reps);
+  const eigenfreeMs = time(() => { err.eigenfree = integrateImhof(eigenfreeForm(a, basis, point(n))).errorBound; }, n >= 20000 ? 2 : reps);
   // what `auto` does for a fresh design (the spectrum, if it chooses one, is part of its cost)
   let autoEngine = '';
   const autoMs = time(() => {
-    const r = new DwNullDistribution(designSource(n - fd.design.k, a, basis, () => fastSpectrum(a, basis), 128 * Number.EPSILON * Math.max(1, fd.condition))).lowerTail(1.9);
+    const r = new DwNullDistribution(designSource(n - fd.design.k, a, basis, () => fastSpectrum(a, basis), 128 * Number.EPSILON * Math.max(1, fd.condition))).lowerTail(point(n));
     autoEngine = r.method;
-  }, n >= 20000 ? 1 : reps);
+  }, n >= 20000 ? 2 : reps);
   perEngine[n] = { imhof: imhofMs, pan: panMs, eigenfree: eigenfreeMs, spectrum: spectrumMs, err };
   const best = Math.min((spectrumMs ?? Infinity) + (imhofMs ?? Infinity), (spectrumMs ?? Infinity) + (panMs ?? Infinity), eigenfreeMs);
   autoRows.push([String(n), autoEngine, fmt(autoMs), fmt(best), (autoMs / best).toFixed(2)]);
@@ -145,7 +154,7 @@ for (const n of sizes) {
 }
 say(table(['n', 'spectrum', 'imhof', 'pan', 'eigenfree', 'error bounds'], rows1));
 say('');
-say('"—": the engine does not apply at that n (the spectrum is not computed beyond n = 20000).');
+say(`"—": the engine does not apply at that n (the spectrum is not computed beyond n = ${FAST_SPECTRUM_MAX_N}).`);
 say('');
 say('### What `auto` picks (a fresh design: its cost includes the spectrum when it takes that route, and the');
 say('extra evaluation that measures the effect of rounding on the bound)');
@@ -172,7 +181,7 @@ for (const n of [20, 100, 500, 1000].filter((x) => !QUICK || x <= 500)) {
     for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) Am.set(i, j, A[i * n + j]);
     const MAM = M.mmul(Am).mmul(M);
     const ev = new EigenvalueDecomposition(MAM, { assumeSymmetric: true }).realEigenvalues.sort((p, r) => Math.abs(p) - Math.abs(r)).slice(basis.k).sort((p, r) => p - r);
-    imhofTail(Float64Array.from(ev), 1.9, 'lower');
+    imhofTail(Float64Array.from(ev), point(n), 'lower');
   }, n >= 500 ? 1 : 5);
   const best = Math.min(
     (perEngine[n]?.spectrum ?? 0) + (perEngine[n]?.imhof ?? Infinity),
