@@ -104,7 +104,15 @@ export class DwError extends Error {
   }
 }
 
-/** True when `err` is a {@link DwError} (also across bundle boundaries, by name and code). */
+/**
+ * True when `err` is a {@link DwError} (also across bundle boundaries, by name and code).
+ *
+ * @example
+ * ```ts
+ * isDwError(new DwError('OPTION_VALUE', '--lag must be a whole number.', 'Write it like 4.')); // true
+ * isDwError(new Error('disk full')); // false
+ * ```
+ */
 export function isDwError(err: unknown): err is DwError {
   return (
     err instanceof DwError ||

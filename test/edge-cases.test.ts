@@ -120,3 +120,18 @@ describe('an intercept in effect without a constant column', () => {
     expect(full.bounds!.dL).toBeCloseTo(usual.bounds!.dL, 10);
   });
 });
+
+describe('a time index with gaps given as a regressor', () => {
+  it('is noticed: the result suggests the time column, and with it the gaps are honoured', () => {
+    const years = [1990, 1991, 1992, 1994, 1995, 1996, 1997, 1999, 2000, 2001, 2002, 2003, 2004, 2006, 2007];
+    const g = seededNormal(12);
+    const y = years.map((t) => 0.1 * (t - 1990) + g());
+    const plain = exactDwTest({ y, x: { year: years } });
+    expect(plain.warnings.join(' ')).toMatch(/'year' looks like a time index with gaps/);
+    const timed = exactDwTest({ y, x: { trend: years.map((t) => t - 1990) }, times: years });
+    expect(timed.gaps).toBe(true);
+    expect(timed.warnings.join(' ')).not.toMatch(/looks like a time index/);
+    const consecutive = exactDwTest({ y, x: { t: years.map((_, i) => i) } });
+    expect(consecutive.warnings.join(' ')).not.toMatch(/looks like a time index/);
+  });
+});

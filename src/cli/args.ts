@@ -110,7 +110,15 @@ function editDistance(a: string, b: string): number {
   return dp[a.length][b.length];
 }
 
-/** A string option that must be present. */
+/**
+ * A string option that must be present.
+ *
+ * @example
+ * ```ts
+ * required({ y: 'sales' }, 'y', 'test'); // "sales"
+ * required({}, 'y', 'test');             // throws OPTION_MISSING: 'test' needs --y.
+ * ```
+ */
 export function required(values: OptionValues, name: string, command: string): string {
   const v = values[name];
   if (typeof v !== 'string' || v === '') {
@@ -119,7 +127,16 @@ export function required(values: OptionValues, name: string, command: string): s
   return v;
 }
 
-/** A number option (plain decimal or scientific notation); anything else is OPTION_VALUE. */
+/**
+ * A number option (plain decimal or scientific notation); anything else is OPTION_VALUE.
+ *
+ * @example
+ * ```ts
+ * numberOption({ alpha: '1e-3' }, 'alpha'); // 0.001
+ * numberOption({}, 'alpha', 0.05);         // 0.05
+ * numberOption({ alpha: '5%' }, 'alpha');  // throws OPTION_VALUE, hint: write it as 0.05
+ * ```
+ */
 export function numberOption(values: OptionValues, name: string, fallback?: number): number | undefined {
   const v = values[name];
   if (v === undefined) return fallback;
@@ -132,7 +149,15 @@ export function numberOption(values: OptionValues, name: string, fallback?: numb
   return Number(v.trim());
 }
 
-/** A whole-number option. */
+/**
+ * A whole-number option.
+ *
+ * @example
+ * ```ts
+ * integerOption({ lag: '4' }, 'lag');   // 4
+ * integerOption({ lag: '1.5' }, 'lag'); // throws OPTION_VALUE
+ * ```
+ */
 export function integerOption(values: OptionValues, name: string, fallback?: number): number | undefined {
   const v = values[name];
   if (v === undefined) return fallback;
@@ -142,7 +167,15 @@ export function integerOption(values: OptionValues, name: string, fallback?: num
   return Number(v);
 }
 
-/** One of a fixed set of words. */
+/**
+ * One of a fixed set of words.
+ *
+ * @example
+ * ```ts
+ * choiceOption({ format: 'latex' }, 'format', ['text', 'latex'] as const, 'text'); // 'latex'
+ * choiceOption({}, 'format', ['text', 'latex'] as const, 'text');                  // 'text'
+ * ```
+ */
 export function choiceOption<T extends string>(values: OptionValues, name: string, choices: readonly T[], fallback: T): T {
   const v = values[name];
   if (v === undefined) return fallback;
@@ -152,12 +185,28 @@ export function choiceOption<T extends string>(values: OptionValues, name: strin
   return v as T;
 }
 
-/** The engine choice. */
+/**
+ * The engine choice.
+ *
+ * @example
+ * ```ts
+ * methodOption({ method: 'pan' }); // 'pan'
+ * methodOption({});                // 'auto'
+ * ```
+ */
 export function methodOption(values: OptionValues): MethodChoice {
   return choiceOption(values, 'method', ['auto', 'imhof', 'pan', 'eigenfree', 'saddlepoint'] as const, 'auto');
 }
 
-/** A comma-separated list of names. */
+/**
+ * A comma-separated list of names.
+ *
+ * @example
+ * ```ts
+ * listOption({ x: 'gdp, rate' }, 'x'); // ['gdp', 'rate']
+ * listOption({}, 'x');                 // undefined
+ * ```
+ */
 export function listOption(values: OptionValues, name: string): string[] | undefined {
   const v = values[name];
   if (v === undefined) return undefined;

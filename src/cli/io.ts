@@ -61,7 +61,16 @@ export function readText(path: string): string {
   return decodeText(bytes, path);
 }
 
-/** Bytes to text: UTF-8 (BOM kept for the parser to drop), else Windows-1252; UTF-16 is refused. */
+/**
+ * Bytes to text: UTF-8 (BOM kept for the parser to drop), else Windows-1252; UTF-16 is refused.
+ *
+ * @example
+ * ```ts
+ * decodeText(new TextEncoder().encode('a,b\n1,2\n'));        // "a,b\n1,2\n"
+ * decodeText(Uint8Array.from([0x63, 0x61, 0x66, 0xe9]));     // "café" (Windows-1252)
+ * decodeText(Uint8Array.from([0xff, 0xfe, 0x61, 0]), 'x.csv'); // throws CSV_MALFORMED (UTF-16)
+ * ```
+ */
 export function decodeText(bytes: Uint8Array, path = 'the input'): string {
   if (bytes.length >= 2 && ((bytes[0] === 0xff && bytes[1] === 0xfe) || (bytes[0] === 0xfe && bytes[1] === 0xff))) {
     throw new DwError('CSV_MALFORMED', `'${path}' is UTF-16 text, not UTF-8.`,

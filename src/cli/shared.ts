@@ -23,7 +23,15 @@ export const MODEL_OPTIONS: OptionSpecs = {
   method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan, eigenfree or saddlepoint' },
 };
 
-/** Read and parse a CSV file named on the command line. */
+/**
+ * Read and parse a CSV file named on the command line.
+ *
+ * @example
+ * ```ts
+ * const table = loadTable(processIo, 'sales.csv', { delimiter: ';', decimal: 'comma' });
+ * table.headers; // the column names of sales.csv
+ * ```
+ */
 export function loadTable(io: CliIo, path: string, values: OptionValues): DataTable {
   const d = values.delimiter;
   let delimiter: ',' | ';' | '\t' | undefined;
@@ -36,7 +44,15 @@ export function loadTable(io: CliIo, path: string, values: OptionValues): DataTa
   return parseCsv(io.readText(path), { delimiter, decimal, source: `'${path}'` });
 }
 
-/** Problem options (intercept, lag, times, engine) from the command line and the table. */
+/**
+ * Problem options (intercept, lag, times, engine) from the command line and the table.
+ *
+ * @example
+ * ```ts
+ * problemOptions({ lag: '4', time: 'year' }, table);
+ * // { intercept: true, lag: 4, times: Float64Array [2001, 2002, 2004], method: 'auto' }
+ * ```
+ */
 export function problemOptions(values: OptionValues, table?: DataTable): ProblemOptions {
   const lag = integerOption(values, 'lag', 1);
   if (lag !== undefined && lag < 1) {
@@ -54,6 +70,12 @@ export function problemOptions(values: OptionValues, table?: DataTable): Problem
 /**
  * The time column, checked where it enters: whole numbers (exactly representable), strictly
  * increasing, so that errors name the file, the data row and the column.
+ *
+ * @example
+ * ```ts
+ * const table = parseCsv('year,sales\n2001,3.1\n2002,2.4\n2004,3.9\n');
+ * timeColumn(table, 'year'); // Float64Array [2001, 2002, 2004] (a gap at 2003 is allowed)
+ * ```
  */
 export function timeColumn(table: DataTable, column: string): Float64Array {
   const t = numericColumn(table, column);
@@ -76,7 +98,15 @@ export function timeColumn(table: DataTable, column: string): Float64Array {
   return t;
 }
 
-/** Columns of a design file as regressors: every column except the time column. */
+/**
+ * Columns of a design file as regressors: every column except the time column.
+ *
+ * @example
+ * ```ts
+ * // columns year, sales, price
+ * Object.keys(designColumns(table, { time: 'year' }, ['sales'])); // ['price']
+ * ```
+ */
 export function designColumns(table: DataTable, values: OptionValues, exclude: string[] = []): Record<string, Float64Array> {
   const skip = new Set(exclude);
   if (typeof values.time === 'string') { columnIndex(table, values.time); skip.add(values.time); }
@@ -89,6 +119,12 @@ export function designColumns(table: DataTable, values: OptionValues, exclude: s
  * The regressors of a data file: --x if given, else every other column that holds numbers. A
  * column of text (no cell a number: labels, country names) is left out by default; a column with
  * numbers and some cells that are not is an error naming the first bad cell, never dropped silently.
+ *
+ * @example
+ * ```ts
+ * // columns year, sales, price, region (region holds text)
+ * Object.keys(chooseRegressors(table, { time: 'year' }, 'sales')); // ['price']
+ * ```
  */
 export function chooseRegressors(table: DataTable, values: OptionValues, yName: string): Record<string, Float64Array> {
   const listed = listOption(values, 'x');
@@ -124,6 +160,13 @@ export function chooseRegressors(table: DataTable, values: OptionValues, yName: 
  * Format a probability for a terminal (src/core/format-number.ts, TERMINAL_STYLE): up to six
  * decimals down to 1e-4, then four significant digits; with `alpha`, more digits when needed to
  * stay on its side of alpha; with an `errorBound`, a value clamped to 0 as "< bound".
+ *
+ * @example
+ * ```ts
+ * formatP(0.0312);                  // "0.0312"
+ * formatP(0.00001234);              // "1.234e-5"
+ * formatP(0, { errorBound: 1e-12 }); // "< 1e-12"
+ * ```
  */
 export function formatP(p: number, context: ProbabilityContext = {}): string {
   return formatProbability(p, TERMINAL_STYLE, context).text;

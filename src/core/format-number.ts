@@ -70,7 +70,15 @@ export interface FormattedProbability {
 /** Most significant digits ever printed (a double carries about 17). */
 const MAX_SIGNIFICANT = 15;
 
-/** x rounded up to one significant digit, as "1e-11", "3e-9". */
+/**
+ * x rounded up to one significant digit, as "1e-11", "3e-9".
+ *
+ * @example
+ * ```ts
+ * boundUp(2.3e-12); // "3e-12"
+ * boundUp(0.00042); // "5e-4"
+ * ```
+ */
 export function boundUp(x: number): string {
   if (!(x > 0) || !Number.isFinite(x)) return String(x);
   let e = Math.floor(Math.log10(x));

@@ -60,7 +60,16 @@ export function densityRange(dist: DwNullDistribution, marks: number[]): [number
   return [Math.max(D_MIN, lo), Math.min(D_MAX, hi)];
 }
 
-/** The exact density at c, 0 on and outside the ends of the support. */
+/**
+ * The exact density at c, 0 on and outside the ends of the support.
+ *
+ * @example
+ * ```ts
+ * const { distribution } = prepareProblem({ t: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12] }, 12);
+ * densityAt(distribution, 2); // 0.6829...
+ * densityAt(distribution, 0); // 0: below the support
+ * ```
+ */
 export function densityAt(dist: DwNullDistribution, c: number): number {
   const [s0, s1] = dist.support;
   return c <= s0 || c >= s1 ? 0 : dist.pdf(c);

@@ -103,6 +103,13 @@ function gershgorin(a: BandMatrix): [number, number] {
 /**
  * A source from a design: the spectrum is computed lazily by `compute`; the mean, the variance
  * and a support interval come from traces and need no eigenvalues.
+ *
+ * @example
+ * ```ts
+ * const source = designSource(n - k, operator, basis, () => fastSpectrum(operator, basis));
+ * source.mean();  // exact E[d], from traces: no eigenvalues computed yet
+ * new DwNullDistribution(source);
+ * ```
  */
 export function designSource(m: number, operator: BandMatrix, basis: ColumnBasis, compute: () => Float64Array, spectrumError = 0): NullSource {
   let nu: Float64Array | undefined;

@@ -79,6 +79,13 @@ function geometricBreaks(upper: number, maxAbsLambda: number): number[] {
  * The characteristic form of Q = sign * sum (nu_j - c) z_j^2 from an explicit spectrum. Weights
  * smaller than 1e-13 times the largest are left out of the truncation bound (they still enter
  * theta and rho), which keeps the bound valid and the cut point finite when c hits an eigenvalue.
+ *
+ * @example
+ * ```ts
+ * const form = spectralForm(Float64Array.from([0.5, 1, 2, 3]), 1.5);
+ * form.m;            // 4
+ * form.maxAbsLambda; // 1.5 (the weights nu_j - c are -1, -0.5, 0.5, 1.5)
+ * ```
  */
 export function spectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): CharacteristicForm {
   const m = nu.length;

@@ -111,7 +111,16 @@ export interface DwTestResult extends DwPValues {
 
 export { checkAlpha } from '../core/alternative.js';
 
-/** Exact p-values of d for a prepared problem. */
+/**
+ * Exact p-values of d for a prepared problem. The engine named is the one that computed the tail
+ * that was tested (for two-sided, or when no alternative is given, the smaller tail).
+ *
+ * @example
+ * ```ts
+ * const p = pValuesFor(prepareProblem({ t: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10] }, 10), 1.1, 'positive');
+ * p.pPositive; // P(D <= 1.1) for this design
+ * ```
+ */
 export function pValuesFor(problem: DwProblem, d: number, alternative?: Alternative): DwPValues {
   // each residual enters at most two differences, and (a - b)^2 <= 2a^2 + 2b^2: 0 <= d <= 4 at any lag
   if (!(Number.isFinite(d) && d >= 0 && d <= 4)) {
@@ -237,6 +246,12 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
   const dist = problem.distribution;
   const critical = { lower: dist.quantile(tailLevel), upper: dist.upperQuantile(tailLevel), tailLevel };
   const interceptInEffect = problem.factored.spansConstant;
+  if (input.times === undefined) {
+    const index = timeLikeColumn(design.x, design.n, design.names);
+    if (index) {
+      warnings.push(`The regressor '${index}' looks like a time index with gaps (increasing whole numbers that skip some values); if it is one, give it as the time column (--time ${index}) so that d is taken only between observations exactly one period apart.`);
+    }
+  }
   if (!interceptInEffect) {
     warnings.push('The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.');
   }
@@ -316,6 +331,29 @@ export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals
     ? [`The residuals were not quite orthogonal to the design (relative component ${drift.toExponential(1)} in the space of the regressors, as from rounding when they were saved); that component was removed before computing d.`]
     : [];
   return { residuals: out, warnings };
+}
+
+/**
+ * The name of a regressor that looks like an integer time index with gaps (strictly increasing
+ * whole numbers with at least one step larger than the smallest step), or null.
+ */
+function timeLikeColumn(x: Float64Array, n: number, names: string[]): string | null {
+  for (let j = 0; j < names.length; j++) {
+    const o = j * n;
+    let increasing = true, minStep = Infinity, maxStep = 0;
+    for (let i = 0; i < n; i++) {
+      const v = x[o + i];
+      if (!Number.isInteger(v)) { increasing = false; break; }
+      if (i > 0) {
+        const step = v - x[o + i - 1];
+        if (!(step > 0)) { increasing = false; break; }
+        minStep = Math.min(minStep, step);
+        maxStep = Math.max(maxStep, step);
+      }
+    }
+    if (increasing && n > 2 && maxStep > minStep) return names[j];
+  }
+  return null;
 }
 
 /** ||Q'e|| / ||e|| for the basis Q of col(X). */

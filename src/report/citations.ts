@@ -35,6 +35,13 @@ function article(key: string, authors: string, year: number, fields: [string, st
 /**
  * A reference-list entry for a work: "Durbin, J. and Watson, G. S. (1950). Title. Biometrika 37,
  * 409-428." In LaTeX the journal is set in italics and the page range with an en dash.
+ *
+ * @example
+ * ```ts
+ * formatReference('durbin-watson-1950', 'text');
+ * // "Durbin, J. and Watson, G. S. (1950). Testing for Serial Correlation in Least Squares
+ * // Regression. I. Biometrika 37, 409-428."
+ * ```
  */
 export function formatReference(key: string, format: InlineFormat): string {
   const w = WORKS[key];
@@ -155,7 +162,15 @@ export const WORKS: Record<string, CitedWork> = {
   ]),
 };
 
-/** Keys of the engine's sources. */
+/**
+ * Keys of the engine's sources.
+ *
+ * @example
+ * ```ts
+ * engineKeys('pan');   // ['pan-1968', 'farebrother-1980']
+ * engineKeys('imhof'); // ['imhof-1961']
+ * ```
+ */
 export function engineKeys(method: string): string[] {
   if (method === 'pan') return ['pan-1968', 'farebrother-1980'];
   if (method === 'saddlepoint') return ['daniels-1954'];
@@ -182,7 +197,14 @@ export function savinWhiteCovers(n: number, kPrime: number, level: number): bool
   return tabulated && n >= 6 && n <= 200 && kPrime >= 1 && kPrime <= 20 && n >= kPrime + 5;
 }
 
-/** True when the report treats d as a valid test (no lagged dependent variable). */
+/**
+ * True when the report treats d as a valid test (no lagged dependent variable).
+ *
+ * @example
+ * ```ts
+ * dIsValid(exactDwTest({ y, x })); // true: no lagged dependent variable among x
+ * ```
+ */
 export function dIsValid(r: DwTestResult): boolean {
   return r.dynamic === null || r.dynamic === undefined;
 }
@@ -192,6 +214,12 @@ export function dIsValid(r: DwTestResult): boolean {
  * (Durbin & Watson), the engine (unless d is not valid), the bounds tables (when the bounds are
  * shown and the case lies inside the printed tables), Wallis (lag > 1), and the tests for dynamic models (when a lagged dependent variable is
  * present).
+ *
+ * @example
+ * ```ts
+ * citedKeys(exactDwTest({ y, x: { t: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12] } }));
+ * // ['durbin-watson-1950', 'durbin-watson-1951', 'imhof-1961', 'savin-white-1977']
+ * ```
  */
 export function citedKeys(r: DwTestResult): string[] {
   const keys = ['durbin-watson-1950', 'durbin-watson-1951'];
@@ -220,6 +248,12 @@ export function citations(r: DwTestResult): string {
 /**
  * An in-text citation of `keys` in one format: "(Durbin and Watson 1950, 1951)" in plain text,
  * "[@durbin-watson-1950; @durbin-watson-1951]" in Markdown (pandoc), "\cite{...}" in LaTeX.
+ *
+ * @example
+ * ```ts
+ * citeInline(['durbin-watson-1950', 'durbin-watson-1951'], 'text'); // "(Durbin and Watson 1950, 1951)"
+ * citeInline(['imhof-1961'], 'latex');                              // "\\cite{imhof-1961}"
+ * ```
  */
 export function citeInline(keys: string[], format: InlineFormat): string {
   const works = keys.map((k) => {

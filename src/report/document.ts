@@ -42,19 +42,42 @@ export const D_DECIMALS = 4;
 
 const para = (text: string): ParagraphBlock => ({ kind: 'para', text });
 
-/** "first-order autocorrelation" or "autocorrelation at lag 4". */
+/**
+ * "first-order autocorrelation" or "autocorrelation at lag 4".
+ *
+ * @example
+ * ```ts
+ * nullWords(exactDwTest({ y, x }));          // "first-order autocorrelation"
+ * nullWords(exactDwTest({ y, x, lag: 4 })); // "autocorrelation at lag 4"
+ * ```
+ */
 export function nullWords(r: DwTestResult): string {
   return r.lag > 1 ? `autocorrelation at lag ${r.lag}` : 'first-order autocorrelation';
 }
 
-/** The alternative in words. */
+/**
+ * The alternative in words.
+ *
+ * @example
+ * ```ts
+ * alternativeWords(exactDwTest({ y, x }));                            // "positive autocorrelation"
+ * alternativeWords(exactDwTest({ y, x, alternative: 'two-sided' })); // "autocorrelation of either sign"
+ * ```
+ */
 export function alternativeWords(r: DwTestResult): string {
   if (r.alternative === 'positive') return 'positive autocorrelation';
   if (r.alternative === 'negative') return 'negative autocorrelation';
   return 'autocorrelation of either sign';
 }
 
-/** The rejection region of the chosen alternative, e.g. "d <= 1.2046". */
+/**
+ * The rejection region of the chosen alternative, e.g. "d <= 1.2046".
+ *
+ * @example
+ * ```ts
+ * inline(rejectionRegion(exactDwTest({ y, x })), 'text'); // e.g. "d <= 1.3299"
+ * ```
+ */
 export function rejectionRegion(r: DwTestResult, decimals = D_DECIMALS): string {
   const lo = `${sym('d')} ${sym('le')} ${fixed(r.critical.lower, decimals)}`;
   const hi = `${sym('d')} ${sym('ge')} ${fixed(r.critical.upper, decimals)}`;
@@ -63,7 +86,15 @@ export function rejectionRegion(r: DwTestResult, decimals = D_DECIMALS): string 
   return `${lo} or ${hi}`;
 }
 
-/** Plain words for a bounds-test zone. */
+/**
+ * Plain words for a bounds-test zone.
+ *
+ * @example
+ * ```ts
+ * inline(zoneWords('inconclusive-positive'), 'text');
+ * // "between d_L and d_U: the bounds test is inconclusive"
+ * ```
+ */
 export function zoneWords(zone: BoundsZone['zone']): string {
   switch (zone) {
     case 'reject-positive': return `below ${sym('dL')}: the bounds test rejects in favour of positive autocorrelation`;
@@ -75,7 +106,15 @@ export function zoneWords(zone: BoundsZone['zone']): string {
   }
 }
 
-/** Why the bounds test is not shown for a result without a bounds zone. */
+/**
+ * Why the bounds test is not shown for a result without a bounds zone.
+ *
+ * @example
+ * ```ts
+ * inline(boundsAbsentReason(exactDwTest({ y, x, intercept: false })), 'text');
+ * // "The bounds test (d_L, d_U) does not apply here: the model has no intercept, ..."
+ * ```
+ */
 export function boundsAbsentReason(r: DwTestResult): string {
   const why: string[] = [];
   if (!r.intercept) why.push('the model has no intercept, and the bounds assume one');
@@ -85,7 +124,14 @@ export function boundsAbsentReason(r: DwTestResult): string {
   return `The bounds test (${sym('dL')}, ${sym('dU')}) does not apply here: ${andList(why)}. The exact test above does not need it.`;
 }
 
-/** The engine in words. */
+/**
+ * The engine in words.
+ *
+ * @example
+ * ```ts
+ * inline(engineWords('pan'), 'text'); // "Pan's finite-range formula (Pan 1968; Farebrother 1980)"
+ * ```
+ */
 export function engineWords(method: string): string {
   if (method === 'imhof') return `Imhof's numerical inversion of the characteristic function, on the eigenvalues of the design ${cite('imhof-1961')}`;
   if (method === 'pan') return `Pan's finite-range formula ${cite('pan-1968', 'farebrother-1980')}`;
@@ -120,7 +166,15 @@ export interface PowerDescription {
   searched: boolean;
 }
 
-/** The power object of a result in the terms the reports use. */
+/**
+ * The power object of a result in the terms the reports use.
+ *
+ * @example
+ * ```ts
+ * const result = exactDwTest({ y, x, power: { rho: [0.2, 0.4, 0.6] } });
+ * describePower(result).lower; // the critical value whose power is shown (one-sided, positive)
+ * ```
+ */
 export function describePower(r: DwTestResult): PowerDescription {
   const pw = r.power!;
   const extra = pw as Partial<{ alternative: DwTestResult['alternative']; process: 'ar1' | 'seasonal'; criticalUpper: number | null; route: string; notes: string[] }>;
@@ -138,7 +192,15 @@ export function describePower(r: DwTestResult): PowerDescription {
   };
 }
 
-/** "u(t) = rho u(t - 1) + e(t)" or, for the seasonal process, "u(t) = rho u(t - 4) + e(t)". */
+/**
+ * "u(t) = rho u(t - 1) + e(t)" or, for the seasonal process, "u(t) = rho u(t - 4) + e(t)".
+ *
+ * @example
+ * ```ts
+ * inline(processFormula('ar1', 1), 'text');      // "u(t) = rho u(t - 1) + e(t)"
+ * inline(processFormula('seasonal', 4), 'text'); // "u(t) = rho u(t - 4) + e(t)"
+ * ```
+ */
 export function processFormula(process: 'ar1' | 'seasonal', lag: number): string {
   const step = process === 'seasonal' ? lag : 1;
   return `u(t) = ${sym('rho')} u(t ${sym('minus')} ${step}) + e(t)`;
@@ -187,7 +249,15 @@ function powerSection(r: DwTestResult): ReportSection {
   return { id: 'power', heading: `Exact power against ${errors}`, blocks };
 }
 
-/** Rows of a power curve worth printing: all when short, else about eleven evenly spread. */
+/**
+ * Rows of a power curve worth printing: all when short, else about eleven evenly spread.
+ *
+ * @example
+ * ```ts
+ * const curve = Array.from({ length: 21 }, (_, i) => ({ rho: i / 20, power: 0 }));
+ * powerRows(curve).map((c) => c.rho); // [0, 0.1, 0.2, ..., 1]: the tenths
+ * ```
+ */
 export function powerRows(curve: { rho: number; power: number }[]): { rho: number; power: number }[] {
   if (curve.length <= 12) return curve;
   // prefer the rows at rho = 0.1, 0.2, ... when the curve has them
@@ -201,6 +271,12 @@ export function powerRows(curve: { rho: number; power: number }[]): { rho: numbe
 /**
  * The sentence added when |p - alpha| <= the error bound: the decision against alpha is at the
  * numerical limit of the computation.
+ *
+ * @example
+ * ```ts
+ * inline(numericalLimitWords(result), 'text');
+ * // e.g. "The p-value lies within the numerical error bound (7.0e-12) of alpha, so ..."
+ * ```
  */
 export function numericalLimitWords(r: DwTestResult): string {
   return `The ${sym('p')}-value lies within the numerical error bound (${bound(r.errorBound)}) of ${sym('alpha')}, so this decision is at the numerical limit of the computation: ` +
@@ -219,7 +295,15 @@ function conclusionStatic(r: DwTestResult): string {
     `${sym('p')} ${relation} ${number} ${sym('gt')} ${a}, and ${sym('d')} = ${fixed(r.d, D_DECIMALS)} lies outside the rejection region ${rejectionRegion(r)}.${limit}`;
 }
 
-/** What the asymptotic tests of a dynamic model say at alpha, in words. */
+/**
+ * What the asymptotic tests of a dynamic model say at alpha, in words.
+ *
+ * @example
+ * ```ts
+ * const result = exactDwTest({ y, x, laggedDependent: 'y_lag1' }); // result.dynamic is set
+ * inline(dynamicVerdict(result), 'text'); // what Breusch-Godfrey and Durbin's h say at alpha
+ * ```
+ */
 export function dynamicVerdict(r: DwTestResult, at = `at ${sym('alpha')} = ${level(r.alpha)}`): string {
   const dyn = r.dynamic!;
   const bg = dyn.breuschGodfrey.pChiSquare <= r.alpha;
@@ -439,7 +523,15 @@ export function buildReport(r: DwTestResult): ReportDocument {
   return { title: `Exact Durbin${sym('ndash')}Watson test`, producer: `exact-dw ${VERSION}`, sections };
 }
 
-/** BibTeX keys of the citation tokens in neutral text, in order of first appearance. */
+/**
+ * BibTeX keys of the citation tokens in neutral text, in order of first appearance.
+ *
+ * @example
+ * ```ts
+ * citedIn(buildReport(exactDwTest({ y, x })).sections);
+ * // e.g. ['durbin-watson-1950', 'durbin-watson-1951', 'savin-white-1977', 'imhof-1961']
+ * ```
+ */
 export function citedIn(sections: ReportSection[]): string[] {
   const texts: string[] = [];
   for (const s of sections) {

@@ -47,7 +47,15 @@ const SYMBOLS: Record<string, Record<InlineFormat, string>> = {
   PDgec: { text: 'P(D >= c)', markdown: 'P(*D* ≥ *c*)', latex: '$P(D \\ge c)$' },
 };
 
-/** A symbol token, e.g. `sym('dL')`. */
+/**
+ * A symbol token, e.g. `sym('dL')`.
+ *
+ * @example
+ * ```ts
+ * inline(sym('dL'), 'text');     // "d_L"
+ * inline(sym('dL'), 'latex');    // "$d_L$"
+ * ```
+ */
 export function sym(name: keyof typeof SYMBOLS & string): string {
   if (!(name in SYMBOLS)) throw new RangeError(`report: unknown symbol ${name}`);
   return `${OPEN}${name}${CLOSE}`;
@@ -56,6 +64,11 @@ export function sym(name: keyof typeof SYMBOLS & string): string {
 /**
  * Remove the token quotes from text that comes from the caller (column names) or from other
  * modules (reasons, warnings), so that it is always printed as plain words.
+ *
+ * @example
+ * ```ts
+ * plain('a ⟨b⟩'); // "a <b>"
+ * ```
  */
 export function plain(s: string): string {
   return s.replace(/[⟨⟩]/g, (c) => (c === OPEN ? '<' : '>'));
@@ -64,6 +77,11 @@ export function plain(s: string): string {
 /**
  * Text written elsewhere in the library (a bounds resolution, a warning, a reason): plain words,
  * with the trade's notations it uses (d_L, d_U, <=, >=) set as symbols in each format.
+ *
+ * @example
+ * ```ts
+ * inline(prose('d_L <= d'), 'markdown'); // "*d*<sub>L</sub> ≤ d"
+ * ```
  */
 export function prose(s: string): string {
   return plain(s)
@@ -73,7 +91,14 @@ export function prose(s: string): string {
     .replace(/ >= /g, ` ${sym('ge')} `);
 }
 
-/** Escape plain words for LaTeX text mode. */
+/**
+ * Escape plain words for LaTeX text mode.
+ *
+ * @example
+ * ```ts
+ * escapeLatex('50% of x_1'); // "50\\% of x\\_1"
+ * ```
+ */
 export function escapeLatex(s: string): string {
   return s.replace(/[\\{}#$%&_^~<>|"]/g, (c) => {
     switch (c) {
@@ -91,7 +116,14 @@ export function escapeLatex(s: string): string {
   });
 }
 
-/** Escape plain words for Markdown (also safe inside a table cell). */
+/**
+ * Escape plain words for Markdown (also safe inside a table cell).
+ *
+ * @example
+ * ```ts
+ * escapeMarkdown('x_1 * 2'); // "x\\_1 \\* 2"
+ * ```
+ */
 export function escapeMarkdown(s: string): string {
   return s.replace(/[\\`*_|[\]<>#]/g, (c) => {
     if (c === '<') return '&lt;';
@@ -100,7 +132,15 @@ export function escapeMarkdown(s: string): string {
   });
 }
 
-/** Turn neutral report text into one format: escape the words, spell the tokens. */
+/**
+ * Turn neutral report text into one format: escape the words, spell the tokens.
+ *
+ * @example
+ * ```ts
+ * inline(`${sym('d')} ${sym('le')} 1.2`, 'markdown'); // "*d* ≤ 1.2"
+ * inline(`${sym('d')} ${sym('le')} 1.2`, 'latex');    // "$d$ $\\le$ 1.2"
+ * ```
+ */
 export function inline(s: string, format: InlineFormat): string {
   let out = '';
   let i = 0;
@@ -148,17 +188,39 @@ function token(t: string, format: InlineFormat): string {
   return s[format];
 }
 
-/** The definition of d at lag j as a formula token. */
+/**
+ * The definition of d at lag j as a formula token.
+ *
+ * @example
+ * ```ts
+ * inline(dFormula(4), 'text'); // "d = sum (e(t) - e(t-4))^2 / sum e(t)^2"
+ * ```
+ */
 export function dFormula(lag: number): string {
   return `${OPEN}dformula:${lag}${CLOSE}`;
 }
 
-/** An in-text citation token of the works with these BibTeX keys (see citations.ts). */
+/**
+ * An in-text citation token of the works with these BibTeX keys (see citations.ts).
+ *
+ * @example
+ * ```ts
+ * inline(cite('imhof-1961'), 'text'); // "(Imhof 1961)"
+ * ```
+ */
 export function cite(...keys: string[]): string {
   return `${OPEN}cite:${keys.join(',')}${CLOSE}`;
 }
 
-/** A column name or other caller text shown verbatim (monospace in Markdown and LaTeX). */
+/**
+ * A column name or other caller text shown verbatim (monospace in Markdown and LaTeX).
+ *
+ * @example
+ * ```ts
+ * inline(code('log_gdp'), 'markdown'); // "`log_gdp`"
+ * inline(code('log_gdp'), 'latex');    // "\\texttt{log\\_gdp}"
+ * ```
+ */
 export function code(s: string): string {
   return `${OPEN}code:${s.replace(/[⟨⟩]/g, '')}${CLOSE}`;
 }
@@ -171,7 +233,15 @@ function signed(body: string, negative: boolean): string {
   return negative ? `${sym('minus')}${body}` : body;
 }
 
-/** Fixed decimals, e.g. fixed(1.23456, 4) = "1.2346". */
+/**
+ * Fixed decimals, e.g. fixed(1.23456, 4) = "1.2346".
+ *
+ * @example
+ * ```ts
+ * fixed(1.23456, 4);                 // "1.2346"
+ * inline(fixed(-0.00001, 3), 'text'); // "0.000" (never "-0.000")
+ * ```
+ */
 export function fixed(x: number, decimals: number): string {
   if (!Number.isFinite(x)) return String(x);
   const s = Math.abs(x).toFixed(decimals);
@@ -179,7 +249,15 @@ export function fixed(x: number, decimals: number): string {
   return signed(s, x < 0 && !zero);
 }
 
-/** Scientific form mantissa x 10^exp as a token, `digits` significant digits. */
+/**
+ * Scientific form mantissa x 10^exp as a token, `digits` significant digits.
+ *
+ * @example
+ * ```ts
+ * inline(scientific(0.000123456, 3), 'text');  // "1.23e-4"
+ * inline(scientific(0.000123456, 3), 'latex'); // "$1.23 \\times 10^{-4}$"
+ * ```
+ */
 export function scientific(x: number, digits: number): string {
   const [mant, exp] = Math.abs(x).toExponential(digits - 1).split('e');
   return signed(`${OPEN}sci:${mant}:${Number(exp)}${CLOSE}`, x < 0);
@@ -214,6 +292,12 @@ export function probability(p: number, context: ProbabilityContext = {}): string
 /**
  * A probability in a report as relation and number (neutral markup), for sentences such as
  * "p = 0.0312 <= 0.05" or "p < 1e-11 <= 0.05"; `atLimit` when |p - alpha| <= the error bound.
+ *
+ * @example
+ * ```ts
+ * probabilityRelation(0.0312, { alpha: 0.05 }); // { relation: '=', number: '0.0312', atLimit: false }
+ * inline(probabilityRelation(0, { errorBound: 1e-12 }).number, 'text'); // "1e-12" (relation '<')
+ * ```
  */
 export function probabilityRelation(p: number, context: ProbabilityContext = {}, style: ProbabilityStyle = REPORT_STYLE): { relation: string; number: string; atLimit: boolean } {
   const f = formatProbability(p, style, context);
@@ -227,13 +311,26 @@ export const PROBABILITY_DECIMALS = 4;
  * A p-value for the paper (core/format-number.ts, PAPER_STYLE): two significant digits (more when
  * needed to stay on the side of `alpha` it lies on), "< 0.001" below 0.001, "> 0.99" when two
  * digits would round it to 1. Returns the relation and the number, e.g. ['=', '0.021'].
+ *
+ * @example
+ * ```ts
+ * paperP(0.02134);                 // ['=', '0.021']
+ * paperP(0.0501, { alpha: 0.05 }); // ['=', '0.0501']: kept above alpha
+ * ```
  */
 export function paperP(p: number, context: ProbabilityContext = {}): [string, string] {
   const f = probabilityRelation(p, context, PAPER_STYLE);
   return [f.relation, f.number];
 }
 
-/** An upper bound: rounded up to two significant digits in scientific form ("2.4e-12"). */
+/**
+ * An upper bound: rounded up to two significant digits in scientific form ("2.4e-12").
+ *
+ * @example
+ * ```ts
+ * inline(bound(2.31e-12), 'text'); // "2.4e-12"
+ * ```
+ */
 export function bound(x: number): string {
   if (x === 0) return '0';
   if (!Number.isFinite(x)) return String(x);
@@ -246,7 +343,15 @@ export function bound(x: number): string {
   return Number(`${m}e${exp}`) >= x ? `${OPEN}sci:${m}:${exp}${CLOSE}` : `${OPEN}sci:${(Number(m) + 0.1).toFixed(1)}:${exp}${CLOSE}`;
 }
 
-/** A regression coefficient or standard error: four significant digits, scientific when tiny or huge. */
+/**
+ * A regression coefficient or standard error: four significant digits, scientific when tiny or huge.
+ *
+ * @example
+ * ```ts
+ * inline(estimate(1.234567), 'text');     // "1.235"
+ * inline(estimate(-0.000123456), 'text'); // "-1.235e-4"
+ * ```
+ */
 export function estimate(x: number): string {
   if (x === 0) return '0';
   if (!Number.isFinite(x)) return String(x);
@@ -259,17 +364,41 @@ export function estimate(x: number): string {
   return signed(s, x < 0);
 }
 
-/** alpha as a percentage without trailing zeros: 0.05 -> "5", 0.025 -> "2.5". */
+/**
+ * alpha as a percentage without trailing zeros: 0.05 -> "5", 0.025 -> "2.5".
+ *
+ * @example
+ * ```ts
+ * percent(0.05);  // "5"
+ * percent(0.025); // "2.5"
+ * ```
+ */
 export function percent(alpha: number): string {
   return String(Number((alpha * 100).toPrecision(10)));
 }
 
-/** A level such as alpha as a plain decimal without trailing zeros (0.05 -> "0.05"). */
+/**
+ * A level such as alpha as a plain decimal without trailing zeros (0.05 -> "0.05").
+ *
+ * @example
+ * ```ts
+ * level(0.05);      // "0.05"
+ * level(0.1 + 0.2); // "0.3"
+ * ```
+ */
 export function level(x: number): string {
   return String(Number(x.toPrecision(10)));
 }
 
-/** Join words as "a, b and c". */
+/**
+ * Join words as "a, b and c".
+ *
+ * @example
+ * ```ts
+ * andList(['a', 'b', 'c']); // "a, b and c"
+ * andList(['a']);           // "a"
+ * ```
+ */
 export function andList(items: string[]): string {
   if (items.length <= 1) return items.join('');
   return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;

@@ -51,7 +51,15 @@ function renderBlock(block: ReportBlock, standalone: boolean): string {
   }
 }
 
-/** Render a report document as LaTeX. */
+/**
+ * Render a report document as LaTeX.
+ *
+ * @example
+ * ```ts
+ * const tex = renderLatexDocument(buildReport(exactDwTest({ y, x })));
+ * writeFileSync('dw-report.tex', tex);
+ * ```
+ */
 export function renderLatexDocument(doc: ReportDocument, options: LatexOptions = {}): string {
   const body: string[] = [
     `\\section*{${inline(doc.title, 'latex')}}`,

@@ -32,7 +32,15 @@ function renderBlock(block: ReportBlock): string {
   }
 }
 
-/** Render a report document as Markdown. */
+/**
+ * Render a report document as Markdown.
+ *
+ * @example
+ * ```ts
+ * const md = renderMarkdownDocument(buildReport(exactDwTest({ y, x })));
+ * md.split('\n')[0]; // "# Exact Durbin–Watson test"
+ * ```
+ */
 export function renderMarkdownDocument(doc: ReportDocument): string {
   const parts = [`# ${inline(doc.title, 'markdown')}`, `*${inline(doc.producer, 'markdown')}*`];
   for (const s of doc.sections) {

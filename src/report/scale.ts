@@ -31,7 +31,15 @@ export function linearScale(domain: [number, number], range: [number, number]): 
   return f;
 }
 
-/** A step of 1, 2 or 5 times a power of ten giving about `count` intervals over `span`. */
+/**
+ * A step of 1, 2 or 5 times a power of ten giving about `count` intervals over `span`.
+ *
+ * @example
+ * ```ts
+ * niceStep(1.7, 6); // 0.5
+ * niceStep(37, 5);  // 10
+ * ```
+ */
 export function niceStep(span: number, count: number): number {
   if (!(span > 0)) return 1;
   const raw = span / count;
@@ -40,7 +48,15 @@ export function niceStep(span: number, count: number): number {
   return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 5 ? 5 : 10) * p;
 }
 
-/** Decimals needed to write multiples of `step` exactly (0.25 -> 2, 0.5 -> 1, 2 -> 0). */
+/**
+ * Decimals needed to write multiples of `step` exactly (0.25 -> 2, 0.5 -> 1, 2 -> 0).
+ *
+ * @example
+ * ```ts
+ * stepDecimals(0.25); // 2
+ * stepDecimals(2);    // 0
+ * ```
+ */
 export function stepDecimals(step: number): number {
   for (let d = 0; d < 12; d++) {
     const s = step * 10 ** d;
@@ -49,7 +65,14 @@ export function stepDecimals(step: number): number {
   return 12;
 }
 
-/** The multiples of `step` in [lo, hi] (computed as i * step, so they do not drift). */
+/**
+ * The multiples of `step` in [lo, hi] (computed as i * step, so they do not drift).
+ *
+ * @example
+ * ```ts
+ * tickValues(0.3, 1.6, 0.2); // [0.4, 0.6, 0.8, 1, 1.2, 1.4, 1.6]
+ * ```
+ */
 export function tickValues(lo: number, hi: number, step: number): number[] {
   const out: number[] = [];
   const i0 = Math.ceil(lo / step - 1e-9);
@@ -59,21 +82,43 @@ export function tickValues(lo: number, hi: number, step: number): number[] {
   return out;
 }
 
-/** A number for an SVG attribute: fixed decimals, no "-0", no trailing zeros. */
+/**
+ * A number for an SVG attribute: fixed decimals, no "-0", no trailing zeros.
+ *
+ * @example
+ * ```ts
+ * svgNumber(3.14159); // "3.14"
+ * svgNumber(-0.001);  // "0"
+ * ```
+ */
 export function svgNumber(x: number, decimals = 2): string {
   const s = x.toFixed(decimals);
   const t = s.includes('.') ? s.replace(/0+$/, '').replace(/\.$/, '') : s;
   return t === '-0' ? '0' : t;
 }
 
-/** "M x0 y0 L x1 y1 ..." for a polyline through `points` (pixel coordinates). */
+/**
+ * "M x0 y0 L x1 y1 ..." for a polyline through `points` (pixel coordinates).
+ *
+ * @example
+ * ```ts
+ * polylinePath([0, 10.5], [20, 5.25]); // "M0 20 L10.5 5.25"
+ * ```
+ */
 export function polylinePath(xs: ArrayLike<number>, ys: ArrayLike<number>, decimals = 2): string {
   const parts: string[] = [];
   for (let i = 0; i < xs.length; i++) parts.push(`${i === 0 ? 'M' : 'L'}${svgNumber(xs[i], decimals)} ${svgNumber(ys[i], decimals)}`);
   return parts.join(' ');
 }
 
-/** Escape text for an XML text node or attribute. */
+/**
+ * Escape text for an XML text node or attribute.
+ *
+ * @example
+ * ```ts
+ * xmlEscape('a < b & "c"'); // 'a &lt; b &amp; &quot;c&quot;'
+ * ```
+ */
 export function xmlEscape(s: string): string {
   return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&apos;' })[c] as string);
 }

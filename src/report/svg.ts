@@ -42,6 +42,12 @@ export interface DensityPlotOptions {
 /**
  * The plotted range: densityRange of src/distribution/density-grid.ts (the statistics) rounded
  * out to whole axis steps (the drawing).
+ *
+ * @example
+ * ```ts
+ * const { distribution } = prepareProblem({ t: [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12] }, 12);
+ * plotDomain(distribution, [2.92]); // { domain: [0, 4], step: 1 }
+ * ```
  */
 export function plotDomain(dist: DwNullDistribution, marks: number[]): { domain: [number, number]; step: number } {
   const [lo, hi] = densityRange(dist, marks);
@@ -116,6 +122,11 @@ function marksOf(r: DwTestResult): Mark[] {
  * the rightmost mark leftwards, a label goes one row above every label it would overlap, so that
  * no label overlaps another and no mark's line (which stops at its own label) crosses a label.
  * Row 0 is the row next to the panel.
+ *
+ * @example
+ * ```ts
+ * labelRows([100, 110, 300], [40, 40, 40]); // [1, 0, 0]: the label at 100 would overlap the one at 110
+ * ```
  */
 export function labelRows(xs: number[], widths: number[], gap = 6): number[] {
   const order = xs.map((_, i) => i).sort((a, b) => xs[b] - xs[a] || b - a);

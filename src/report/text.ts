@@ -10,7 +10,15 @@ import { formatReference } from './citations.js';
 /** Width of a text report. */
 export const TEXT_WIDTH = 78;
 
-/** Break `text` into lines of at most `width` characters (longer words stay whole). */
+/**
+ * Break `text` into lines of at most `width` characters (longer words stay whole).
+ *
+ * @example
+ * ```ts
+ * wrap('the exact null distribution of d', 12); // ['the exact', 'null', 'distribution', 'of d']
+ * wrap('a b c d e f', 5, '  ');                 // ['  a b', '  c d', '  e f']
+ * ```
+ */
 export function wrap(text: string, width: number, indent = '', hanging = indent): string[] {
   const words = text.split(/\s+/).filter((w) => w !== '');
   const lines: string[] = [];
@@ -76,7 +84,15 @@ function renderBlock(block: ReportBlock): string[] {
   }
 }
 
-/** Render a report document as plain text. */
+/**
+ * Render a report document as plain text.
+ *
+ * @example
+ * ```ts
+ * const text = renderTextDocument(buildReport(exactDwTest({ y, x })));
+ * text.split('\n')[1]; // "  Exact Durbin-Watson test      ...      exact-dw 0.1.0"
+ * ```
+ */
 export function renderTextDocument(doc: ReportDocument): string {
   const rule = '='.repeat(TEXT_WIDTH);
   const title = inline(doc.title, 'text');

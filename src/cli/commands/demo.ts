@@ -22,7 +22,14 @@ import { choiceOption } from '../args.js';
 import { REPORT_FORMATS, renderReport, type ReportFormat } from './test.js';
 import type { Command } from './command.js';
 
-/** Path of the bundled demo data (from the compiled module in dist/src/cli/commands, or from src/cli/commands). */
+/**
+ * Path of the bundled demo data (from the compiled module in dist/src/cli/commands, or from src/cli/commands).
+ *
+ * @example
+ * ```ts
+ * parseCsv(readFileSync(demoDataPath(), 'utf8')); // the bundled docs/demo/apiary.csv
+ * ```
+ */
 export function demoDataPath(): string {
   const here = dirname(fileURLToPath(import.meta.url));
   const candidates = [
@@ -38,6 +45,11 @@ export const DEMO_FOLDER = 'exact-dw-demo';
 /**
  * Create a new folder `base`, or `base-2`, `base-3`, ... when it exists: never reuse one.
  * mkdir without `recursive` fails on an existing folder, so two runs at once cannot share one.
+ *
+ * @example
+ * ```ts
+ * freshFolder('exact-dw-demo'); // 'exact-dw-demo', or 'exact-dw-demo-2' when that exists
+ * ```
  */
 export function freshFolder(base: string): string {
   const parent = dirname(resolve(base));

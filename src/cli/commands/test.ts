@@ -39,7 +39,14 @@ export const REPORT_OPTIONS: OptionSpecs = {
   force: { type: 'boolean', help: 'replace files given to --out, --plot or --bib that already exist' },
 };
 
-/** The report in one format. */
+/**
+ * The report in one format.
+ *
+ * @example
+ * ```ts
+ * renderReport(exactDwTest({ y, x }), 'markdown').split('\n')[0]; // "# Exact Durbin–Watson test"
+ * ```
+ */
 export function renderReport(result: DwTestResult, format: ReportFormat): string {
   switch (format) {
     case 'markdown': return renderMarkdown(result);
@@ -49,7 +56,14 @@ export function renderReport(result: DwTestResult, format: ReportFormat): string
   }
 }
 
-/** What goes to the screen or to --out: the report or the paragraph, with BibTeX appended on --cite. */
+/**
+ * What goes to the screen or to --out: the report or the paragraph, with BibTeX appended on --cite.
+ *
+ * @example
+ * ```ts
+ * mainOutput(result, 'latex', true, true); // the LaTeX paragraph, then its BibTeX entries
+ * ```
+ */
 export function mainOutput(result: DwTestResult, format: ReportFormat, paragraph: boolean, cite: boolean): string {
   const bib = cite ? citations(result) : '';
   if (format === 'json') {
@@ -67,7 +81,15 @@ export function mainOutput(result: DwTestResult, format: ReportFormat, paragraph
 /** The files a run will write, checked before any work is done. */
 export interface OutputFiles { out?: string; plot?: string; bib?: string; force: boolean }
 
-/** Read --out, --plot, --bib and --force; refuse existing files (without --force), clashes, and a figure not named .svg. */
+/**
+ * Read --out, --plot, --bib and --force; refuse existing files (without --force), clashes, and a figure not named .svg.
+ *
+ * @example
+ * ```ts
+ * const files = outputFiles({ out: 'report.md', plot: 'density.svg' }, processIo);
+ * // { out: 'report.md', plot: 'density.svg', force: false }; throws FILE_EXISTS if either exists
+ * ```
+ */
 export function outputFiles(values: OptionValues, io: CliIo): OutputFiles {
   const pick = (name: string): string | undefined => {
     const v = values[name];
@@ -101,6 +123,13 @@ export function outputFiles(values: OptionValues, io: CliIo): OutputFiles {
 /**
  * Render everything asked for, then write it: the report (or paragraph) to --out or the screen,
  * the figure to --plot, the BibTeX to --bib. A note on stderr names each file written.
+ *
+ * @example
+ * ```ts
+ * const files = outputFiles(values, io);
+ * const result = exactDwTest({ y, x });
+ * writeOutputs(io, result, values, files, () => prepareProblem(x, y.length));
+ * ```
  */
 export function writeOutputs(io: CliIo, result: DwTestResult, values: OptionValues, files: OutputFiles, problem: () => ReturnType<typeof prepareProblem>): void {
   const format = choiceOption<ReportFormat>(values, 'format', REPORT_FORMATS, 'text');
