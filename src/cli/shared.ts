@@ -15,6 +15,16 @@ export const CSV_OPTIONS: OptionSpecs = {
   decimal: { type: 'string', value: 'MARK', help: "decimal mark: 'point' or 'comma' (detected when omitted)" },
 };
 
+/** The design file of `pvalue`, `critical` and `power`: every column a regressor. */
+export const DESIGN_OPTION: OptionSpecs = {
+  design: { type: 'string', value: 'FILE', help: 'CSV of regressors: a header row, every column a regressor' },
+};
+
+/** `--format` for commands that print text or JSON. */
+export const TEXT_JSON_FORMAT: OptionSpecs = {
+  format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+};
+
 /** Options that define the statistic and the engine. */
 export const MODEL_OPTIONS: OptionSpecs = {
   'no-intercept': { type: 'boolean', help: 'do not add an intercept (a constant column you supply still counts as one)' },

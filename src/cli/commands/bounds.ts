@@ -5,6 +5,7 @@ import { boundsZone } from '../../bounds/zone.js';
 import type { Alternative } from '../../core/alternative.js';
 import { choiceOption, integerOption, methodOption, numberOption } from '../args.js';
 import type { Command } from './command.js';
+import { TEXT_JSON_FORMAT } from '../shared.js';
 
 export const boundsCommand: Command = {
   name: 'bounds',
@@ -29,7 +30,7 @@ export const boundsCommand: Command = {
     alternative: { type: 'string', value: 'ALT', help: 'with --d: positive (default), negative or two-sided' },
     digits: { type: 'string', value: 'D', help: 'decimals in text output (default 3, as printed tables; at most 9)' },
     method: { type: 'string', value: 'ENGINE', help: 'auto (default: closed-form route), imhof or pan (eigenfree needs a design, not bounds)' },
-    format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+    ...TEXT_JSON_FORMAT,
   },
   run({ values, io }) {
     const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');

@@ -2,7 +2,7 @@
 import { prepareProblem } from '../../inference/problem.js';
 import { checkAlpha } from '../../core/alternative.js';
 import { choiceOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 export const criticalCommand: Command = {
@@ -11,11 +11,11 @@ export const criticalCommand: Command = {
   usage: 'exact-dw critical --design X.csv [--alpha 0.05] [options]',
   details: 'lower: P(D <= lower) = alpha (test for positive autocorrelation);\nupper: P(D >= upper) = alpha (test for negative autocorrelation).',
   options: {
-    design: { type: 'string', value: 'FILE', help: 'CSV of regressors: a header row, every column a regressor' },
+    ...DESIGN_OPTION,
     alpha: { type: 'string', value: 'A', help: 'significance level in (0, 1) (default 0.05)' },
     ...MODEL_OPTIONS,
     ...CSV_OPTIONS,
-    format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+    ...TEXT_JSON_FORMAT,
   },
   run({ values, io }) {
     const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');

@@ -8,7 +8,7 @@ import { numericColumn } from '../../data/csv.js';
 import type { Alternative } from '../../core/alternative.js';
 import { dynamicModelCheck, serialCorrelationTests, type DynamicDiagnosis, type SerialTests } from '../../dynamic/serial-tests.js';
 import { choiceOption, integerOption, required } from '../args.js';
-import { CSV_OPTIONS, chooseRegressors, formatP, loadTable } from '../shared.js';
+import { CSV_OPTIONS, chooseRegressors, formatP, loadTable, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 function num(v: number): string {
@@ -57,7 +57,7 @@ export const diagnoseCommand: Command = {
     'no-intercept': { type: 'boolean', help: 'do not add an intercept (a constant column you supply still counts as one)' },
     time: { type: 'string', value: 'COL', help: 'integer time column (not a regressor); lags are taken in time units' },
     ...CSV_OPTIONS,
-    format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+    ...TEXT_JSON_FORMAT,
   },
   run({ values, positionals, io }) {
     const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');

@@ -5,7 +5,7 @@ import { prepareProblem } from '../../inference/problem.js';
 import { powerForProblem, type PowerRoute } from '../../power/exact-power.js';
 import type { ErrorProcess } from '../../power/weights.js';
 import { choiceOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
@@ -105,7 +105,7 @@ export const powerCommand: Command = {
     'banded factorisations without eigenvalues (eigen-free route); --route forces one.',
   ].join('\n'),
   options: {
-    design: { type: 'string', value: 'FILE', help: 'CSV of regressors: a header row, every column a regressor' },
+    ...DESIGN_OPTION,
     rho: { type: 'string', value: 'LIST', help: `values of rho in (-1, 1), numbers or FROM:TO:STEP (default ${DEFAULT_RHO})` },
     alpha: { type: 'string', value: 'A', help: 'size of the test in (0, 1) (default 0.05)' },
     target: { type: 'string', value: 'P', help: 'power to reach; the smallest rho reaching it is reported (default 0.8; none skips the search)' },
@@ -114,7 +114,7 @@ export const powerCommand: Command = {
     route: { type: 'string', value: 'ROUTE', help: 'auto (default), dense (n <= 600) or eigenfree (n <= 100000)' },
     ...MODEL_OPTIONS,
     ...CSV_OPTIONS,
-    format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+    ...TEXT_JSON_FORMAT,
   },
   run({ values, io }) {
     const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');

@@ -5,7 +5,7 @@ import { numericColumn } from '../../data/csv.js';
 import { prepareProblem } from '../../inference/problem.js';
 import { checkResiduals, pValuesFor } from '../../inference/dw-test.js';
 import { choiceOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, formatP, loadTable, problemOptions } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, formatP, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 export const pvalueCommand: Command = {
@@ -13,12 +13,12 @@ export const pvalueCommand: Command = {
   summary: 'exact p-values of an observed d for your design',
   usage: 'exact-dw pvalue --design X.csv (--d VALUE | --residuals E.csv) [options]',
   options: {
-    design: { type: 'string', value: 'FILE', help: 'CSV of regressors: a header row, every column a regressor' },
+    ...DESIGN_OPTION,
     d: { type: 'string', value: 'VALUE', help: 'the observed Durbin-Watson statistic' },
     residuals: { type: 'string', value: 'FILE', help: 'CSV with one column of OLS residuals (instead of --d)' },
     ...MODEL_OPTIONS,
     ...CSV_OPTIONS,
-    format: { type: 'string', value: 'FMT', help: 'text (default) or json' },
+    ...TEXT_JSON_FORMAT,
   },
   run({ values, io }) {
     const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');
