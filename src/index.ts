@@ -20,7 +20,7 @@ export { fitLeastSquares, type Coefficient, type LeastSquaresFit } from './model
 export { parseCsv, numericColumn, parseCell, type DataTable, type CsvOptions } from './data/csv.js';
 export { prepareProblem, type DwProblem, type ProblemOptions } from './inference/problem.js';
 export {
-  exactDwTest, exactDwPValue, exactDwCritical, pValuesFor,
+  exactDwTest, runExactDwTest, exactDwPValue, exactDwCritical, pValuesFor,
   type DwTestInput, type DwTestResult, type DwPValues, type Alternative, type BoundsZone, type PowerSummary, type DynamicModelCheck,
 } from './inference/dw-test.js';
 export * from './report/index.js';

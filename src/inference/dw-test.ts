@@ -191,6 +191,20 @@ export { rowCount } from '../model/design.js';
  * ```
  */
 export function exactDwTest(input: DwTestInput): DwTestResult {
+  return runExactDwTest(input).result;
+}
+
+/**
+ * {@link exactDwTest}, also returning the prepared problem (design, operator, null distribution),
+ * for callers that go on to draw the density or compute power without preparing it again.
+ *
+ * @example
+ * ```ts
+ * const { result, problem } = runExactDwTest({ y, x });
+ * renderDensitySvg(result, problem.distribution);
+ * ```
+ */
+export function runExactDwTest(input: DwTestInput): { result: DwTestResult; problem: DwProblem } {
   const alternative = input.alternative ?? 'positive';
   checkAlternative(alternative);
   const alpha = input.alpha ?? 0.05;
@@ -271,7 +285,7 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
       'Pass y (and the regressors) instead of the residuals.');
   }
   const boundsApply = interceptInEffect && problem.pairs.lag === 1 && !gaps && n <= MAX_BOUNDS_N && n - design.k >= 2;
-  return {
+  const result: DwTestResult = {
     ...p,
     m: n - design.k,
     lag: problem.pairs.lag,
@@ -294,6 +308,7 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
     gaps,
     warnings,
   };
+  return { result, problem };
 }
 
 /** Residuals whose component in col(X) is larger than this (relative) are refused. */

@@ -9,7 +9,7 @@
  * (issue 7). To build the page without one of them: remove its marked import, set its
  * capabilities to false, and replace each of its other marked lines by `return null;`.
  */
-import type { DwTestInput, DwTestResult } from '../inference/dw-test.js';
+import { runExactDwTest, type DwTestInput, type DwTestResult } from '../inference/dw-test.js';
 import { prepareProblem, type DwProblem } from '../inference/problem.js';
 import { renderText } from '../report/text.js';
 import { renderDensitySvg, paperParagraph, renderMarkdown } from '../report/index.js'; // REPORTS
@@ -67,6 +67,21 @@ function problemOf(input: DwTestInput, result: DwTestResult): DwProblem {
     problems.set(input, p);
   }
   return p;
+}
+
+/**
+ * Run the exact test and keep its prepared problem for the figure and the power of this input,
+ * so that neither prepares it (and its spectrum) a second time.
+ *
+ * @example
+ * ```ts
+ * const result = runTest(input); // then figureSvg(input, result) reuses the problem
+ * ```
+ */
+export function runTest(input: DwTestInput): DwTestResult {
+  const { result, problem } = runExactDwTest(input);
+  problems.set(input, problem);
+  return result;
 }
 
 /**

@@ -5,8 +5,8 @@
  * cancel.
  */
 import { parseCsv, numericColumn, type CsvOptions, type DataTable } from '../data/csv.js';
-import { exactDwTest, type DwTestInput } from '../inference/dw-test.js';
-import { figureSvg, markdownReport, paragraphFor, powerAt, textReport, type ReportExtras } from './adapter.js';
+import type { DwTestInput } from '../inference/dw-test.js';
+import { figureSvg, markdownReport, paragraphFor, powerAt, runTest, textReport, type ReportExtras } from './adapter.js';
 import { guessColumns, summarizeColumns } from './columns.js';
 import { plainError } from './plain-error.js';
 import type { DataSource, ModelChoice, OptionalPart, PlainError, Reply, Request, TableSummary } from './protocol.js';
@@ -67,7 +67,7 @@ function compute(id: number, data: DataSource, model: ModelChoice): void {
   };
 
   stage('Fitting the regression; exact p-values and critical values');
-  const result = exactDwTest(input);
+  const result = runTest(input);
 
   // The optional parts: a failure in one of them (a rho out of range, a size limit) is shown in its
   // own panel and does not take the test result away.

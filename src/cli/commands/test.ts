@@ -8,8 +8,8 @@
 import { resolve } from 'node:path';
 import { DwError } from '../../errors.js';
 import { numericColumn } from '../../data/csv.js';
-import { exactDwTest, type Alternative, type DwTestResult } from '../../inference/dw-test.js';
-import { prepareProblem, type ProblemOptions } from '../../inference/problem.js';
+import { runExactDwTest, type Alternative, type DwTestResult } from '../../inference/dw-test.js';
+import type { DwProblem, ProblemOptions } from '../../inference/problem.js';
 import type { RegressorInput } from '../../model/design.js';
 import { renderText } from '../../report/text.js';
 import { renderMarkdown } from '../../report/markdown.js';
@@ -127,11 +127,11 @@ export function outputFiles(values: OptionValues, io: CliIo): OutputFiles {
  * @example
  * ```ts
  * const files = outputFiles(values, io);
- * const result = exactDwTest({ y, x });
- * writeOutputs(io, result, values, files, () => prepareProblem(x, y.length));
+ * const { result, problem } = runExactDwTest({ y, x });
+ * writeOutputs(io, result, values, files, () => problem);
  * ```
  */
-export function writeOutputs(io: CliIo, result: DwTestResult, values: OptionValues, files: OutputFiles, problem: () => ReturnType<typeof prepareProblem>): void {
+export function writeOutputs(io: CliIo, result: DwTestResult, values: OptionValues, files: OutputFiles, problem: () => DwProblem): void {
   const format = choiceOption<ReportFormat>(values, 'format', REPORT_FORMATS, 'text');
   const main = mainOutput(result, format, values.paragraph === true, values.cite === true);
   const svg = files.plot !== undefined ? renderDensitySvg(result, problem().distribution) : undefined;
@@ -195,9 +195,9 @@ export const testCommand: Command = {
     const power = typeof values.power === 'string'
       ? { rho: parseRhoList(values.power), target: numberOption(values, 'target', 0.8) as number }
       : undefined;
-    const result = exactDwTest({ y, x, alternative, alpha, ...options, laggedDependent, bgOrder, power });
+    const { result, problem } = runExactDwTest({ y, x, alternative, alpha, ...options, laggedDependent, bgOrder, power });
     // the figure needs the null distribution itself: rebuild it from the same design and options
-    writeOutputs(io, result, values, files, () => prepareProblem(x, y.length, options));
+    writeOutputs(io, result, values, files, () => problem);
     return 0;
   },
 };
