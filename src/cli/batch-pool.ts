@@ -1,0 +1,126 @@
+/**
+ * Node-only: the groups of a batch split among worker threads (node:worker_threads), each thread
+ * with its own cache of prepared designs, the parts put together in the order of the groups.
+ * Groups are split into contiguous runs of about equal numbers of rows, so that groups next to each
+ * other (often the same design) stay on one thread. Never imported by the web page.
+ */
+import { availableParallelism } from 'node:os';
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import { parseCsv, type CsvOptions } from '../data/csv.js';
+import {
+  batchColumns, checkBatchOptions, finishBatch, groupRows, testGroups,
+  type BatchGroup, type BatchInput, type BatchResult,
+} from '../batch/batch.js';
+import { DesignCache } from '../batch/shared-design.js';
+import { DwError } from '../errors.js';
+
+/** What a worker thread is given: the file's text and the batch settings, and its run of groups. */
+export interface BatchJob {
+  text: string;
+  csv: CsvOptions;
+  input: Omit<BatchInput, 'table' | 'columns' | 'onProgress'>;
+  from: number;
+  to: number;
+}
+
+/** Messages from a worker thread. */
+export type BatchWorkerMessage =
+  | { kind: 'progress'; done: number }
+  | { kind: 'done'; groups: BatchGroup[]; designs: number }
+  | { kind: 'error'; code: string; message: string; hint: string };
+
+/**
+ * Run one job in this thread (what each worker thread does).
+ *
+ * @example
+ * ```ts
+ * const { groups, designs } = runBatchJob({ text, csv: {}, input: { by: 'shop', y: 'sales' }, from: 0, to: 10 });
+ * ```
+ */
+export function runBatchJob(job: BatchJob, onProgress?: (done: number) => void): { groups: BatchGroup[]; designs: number } {
+  const table = parseCsv(job.text, job.csv);
+  const columns = batchColumns(table, job.input);
+  const grouping = groupRows(table, columns.by);
+  const cache = new DesignCache({ intercept: job.input.intercept, lag: job.input.lag, method: job.input.method, tolerance: job.input.tolerance });
+  const groups = testGroups(table, grouping, columns, job.input, cache, job.from, job.to, onProgress);
+  return { groups, designs: cache.size };
+}
+
+/** The compiled worker script beside this file, or null when running from TypeScript sources. */
+function workerScript(): string | null {
+  const here = fileURLToPath(import.meta.url);
+  if (!here.endsWith('.js')) return null;
+  const script = here.replace(/batch-pool\.js$/, 'batch-worker.js');
+  return existsSync(script) ? script : null;
+}
+
+/** Threads to use by default: every core the process may use. */
+export function defaultWorkers(): number {
+  return Math.max(1, availableParallelism());
+}
+
+/**
+ * The batch of a CSV text, with the groups split among `workers` threads (1: all in this thread).
+ * File-level errors are thrown before any thread starts.
+ *
+ * @example
+ * ```ts
+ * const batch = await runBatch(text, { source: "'shops.csv'" }, { by: 'shop', y: 'sales', adjust: 'bh' }, 2);
+ * ```
+ */
+export async function runBatch(
+  text: string, csv: CsvOptions, input: Omit<BatchInput, 'table' | 'columns' | 'onProgress'>, workers: number,
+  onProgress?: (done: number, total: number) => void,
+): Promise<BatchResult> {
+  checkBatchOptions(input);
+  const table = parseCsv(text, csv);
+  const columns = batchColumns(table, input);
+  const grouping = groupRows(table, columns.by);
+  const total = grouping.labels.length;
+  const script = workerScript();
+  const threads = Math.max(1, Math.min(workers, total, script ? workers : 1));
+  if (threads === 1) {
+    const cache = new DesignCache({ intercept: input.intercept, lag: input.lag, method: input.method, tolerance: input.tolerance });
+    const groups = testGroups(table, grouping, columns, input, cache, 0, total, onProgress ? (d) => onProgress(d, total) : undefined);
+    return finishBatch(input, columns, grouping, groups, cache.size);
+  }
+  // contiguous runs of about equal numbers of rows
+  const rowsTotal = grouping.rows.reduce((s, r) => s + r.length, 0);
+  const cuts = [0];
+  let acc = 0;
+  for (let g = 0; g < total && cuts.length < threads; g++) {
+    acc += grouping.rows[g].length;
+    if (acc >= (rowsTotal * cuts.length) / threads && g + 1 < total) cuts.push(g + 1);
+  }
+  cuts.push(total);
+  const done = new Array<number>(cuts.length - 1).fill(0);
+  const parts = await Promise.all(cuts.slice(0, -1).map((from, w) => new Promise<{ groups: BatchGroup[]; designs: number }>((resolveJob, reject) => {
+    const job: BatchJob = { text, csv, input, from, to: cuts[w + 1] };
+    const worker = new Worker(script!, { workerData: job });
+    let settled = false;
+    worker.on('message', (m: BatchWorkerMessage) => {
+      if (m.kind === 'progress') {
+        done[w] = m.done;
+        onProgress?.(done.reduce((s, v) => s + v, 0), total);
+      } else if (m.kind === 'done') {
+        settled = true;
+        resolveJob({ groups: m.groups, designs: m.designs });
+      } else {
+        settled = true;
+        reject(new DwError(m.code as DwError['code'], m.message, m.hint));
+      }
+    });
+    worker.on('error', (err) => { if (!settled) { settled = true; reject(err); } });
+    worker.on('exit', (code) => { if (!settled) { settled = true; reject(new Error(`a worker thread stopped with code ${code}`)); } });
+  })));
+  // design numbers are per thread: shift them so that each prepared design has its own number
+  const groups: BatchGroup[] = [];
+  let offset = 0;
+  for (const part of parts) {
+    for (const g of part.groups) groups.push(g.design === null ? g : { ...g, design: g.design + offset });
+    offset += part.designs;
+  }
+  return finishBatch(input, columns, grouping, groups, offset);
+}
