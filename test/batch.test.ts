@@ -62,24 +62,41 @@ function shopData(): string {
 describe('exactDwBatch', () => {
   const table = parseCsv(shopData(), { source: "'shops.csv'" });
   const batch = exactDwBatch({ table, by: 'shop', y: 'sales', x: ['price'], time: 'week' });
+  const full = exactDwBatch({ table, by: 'shop', y: 'sales', x: ['price'], time: 'week', critical: true });
+  const single = (r: number[]) => exactDwTest({
+    y: r.map((i) => Number(table.rows[i][2])), x: { price: r.map((i) => Number(table.rows[i][3])) }, times: r.map((i) => Number(table.rows[i][1])),
+  });
 
-  it('each group equals a single exact test on its rows (internal consistency)', () => {
+  it('by default each group has the d, p-value and decision of a single exact test on its rows, and an error bound no larger', () => {
+    const { labels, rows } = groupRows(table, 'shop');
+    for (let g = 0; g < labels.length; g++) {
+      if (labels[g] === 'g') continue;
+      const s = single(Array.from(rows[g]));
+      const got = batch.groups[g];
+      expect(got.d).toBe(s.d);
+      expect(got.pValue).toBe(s.pValue);
+      expect(got.decision).toBe(s.decision);
+      expect(got.critical).toBeNull();
+      expect(got.errorBound!).toBeGreaterThan(0);
+      expect(got.errorBound!).toBeLessThanOrEqual(s.errorBound);
+    }
+  });
+
+  it('with critical values every number equals a single exact test on its rows (internal consistency)', () => {
     const { labels, rows } = groupRows(table, 'shop');
     for (let g = 0; g < labels.length; g++) {
       const r = Array.from(rows[g]);
-      const got = batch.groups[g];
+      const got = full.groups[g];
       expect(got.group).toBe(labels[g]);
       if (labels[g] === 'g') continue;
-      const single = exactDwTest({
-        y: r.map((i) => Number(table.rows[i][2])), x: { price: r.map((i) => Number(table.rows[i][3])) }, times: r.map((i) => Number(table.rows[i][1])),
-      });
+      const s = single(r);
       expect(got.error).toBeNull();
-      expect(got.d).toBe(single.d);
-      expect(got.pValue).toBe(single.pValue);
-      expect(got.critical).toEqual({ lower: single.critical.lower, upper: single.critical.upper });
-      expect(got.errorBound).toBe(single.errorBound);
-      expect(got.zone).toBe(single.bounds?.zone ?? null);
-      expect(got.decision).toBe(single.decision);
+      expect(got.d).toBe(s.d);
+      expect(got.pValue).toBe(s.pValue);
+      expect(got.critical).toEqual({ lower: s.critical.lower, upper: s.critical.upper });
+      expect(got.errorBound).toBe(s.errorBound);
+      expect(got.zone).toBe(s.bounds?.zone ?? null);
+      expect(got.decision).toBe(s.decision);
     }
   });
 
@@ -134,6 +151,40 @@ describe('exactDwBatch', () => {
 
   it('a column that does not exist is a file-level error', () => {
     expect(() => exactDwBatch({ table, by: 'store', y: 'sales' })).toThrowError(expect.objectContaining({ code: 'COLUMN_UNKNOWN' }));
+  });
+
+  it('twelve series on one design (the shared density ceiling) keep the p-values of single tests', () => {
+    const lines = ['unit,t,v,z'];
+    for (let s = 0; s < 12; s++) for (let t = 1; t <= 30; t++) lines.push(`u${s},${t},${(Math.sin(1.7 * t * (s + 1)) + 0.4 * Math.cos(0.3 * t + s)).toFixed(5)},${Math.cos(0.5 * t).toFixed(5)}`);
+    const tab = parseCsv(lines.join('\n') + '\n');
+    for (const alternative of ['positive', 'two-sided'] as const) {
+      const b = exactDwBatch({ table: tab, by: 'unit', y: 'v', x: ['z'], time: 't', alternative });
+      expect(b.summary.designs).toBe(1);
+      const { rows } = groupRows(tab, 'unit');
+      b.groups.forEach((g, i) => {
+        const r = Array.from(rows[i]);
+        const s = exactDwTest({ y: r.map((j) => +tab.rows[j][2]), x: { z: r.map((j) => +tab.rows[j][3]) }, times: r.map((j) => +tab.rows[j][1]), alternative });
+        expect(g.pValue).toBe(s.pValue);
+        expect(g.d).toBe(s.d);
+        // the bound of the tested tail, with the rounding allowances from a density ceiling: of the same small size
+        expect(g.errorBound!).toBeGreaterThan(0);
+        expect(g.errorBound!).toBeLessThan(Math.max(1e-10, 10 * s.errorBound));
+      });
+    }
+  });
+
+  it('a group whose regressor is y lagged one period: d is not valid there, and it is left out of the adjusted family', () => {
+    const lines = ['unit,t,v,vlag'];
+    for (let s = 0; s < 3; s++) {
+      const v = Array.from({ length: 21 }, (_, t) => +(Math.sin(1.1 * t * (s + 1)) + 0.2 * t).toFixed(4));
+      for (let t = 1; t <= 20; t++) lines.push(`u${s},${t},${v[t]},${s === 1 ? v[t - 1] : (+Math.cos(0.9 * t + s)).toFixed(4)}`);
+    }
+    const b = exactDwBatch({ table: parseCsv(lines.join('\n') + '\n'), by: 'unit', y: 'v', x: ['vlag'], time: 't', adjust: 'bh' });
+    expect(b.groups[1]).toMatchObject({ decision: 'not-valid', pValue: null, pAdjusted: null, error: null });
+    expect(b.groups[1].warnings.join(' ')).toMatch(/lagged one period/);
+    expect(b.summary.notValid).toBe(1);
+    expect(b.notes).toContainEqual({ code: 'BATCH_NOT_VALID_EXCLUDED', excluded: 1 });
+    expect(b.notes).toContainEqual({ code: 'BATCH_ADJUSTED', method: 'bh', family: 2 });
   });
 
   it('the design cache compares designs bit for bit', () => {

@@ -13,6 +13,7 @@ import { checkAlpha, checkAlternative } from '../core/alternative.js';
 import { runExactDwTest } from '../inference/dw-test.js';
 import { adjustPValues, ADJUSTMENTS, type Adjustment } from './adjust.js';
 import { DesignCache } from './shared-design.js';
+import { seriesAnswer } from './group-test.js';
 import type { BatchNote } from '../report/wording.js';
 
 /** A cell of a column given to {@link exactDwBatch} as values (null, undefined, '' or NaN are missing). */
@@ -46,6 +47,12 @@ export interface BatchInput {
   method?: MethodChoice;
   /** Target absolute error of each probability (default 1e-11). */
   tolerance?: number;
+  /**
+   * Also compute each group's exact critical values and bounds zone, and run each group through the
+   * full single test (default false: d, the p-value tested and its error bound only, which is
+   * faster when the groups have their own designs).
+   */
+  critical?: boolean;
   /** Called after each group with the number done and the total. */
   onProgress?: (done: number, total: number) => void;
 }
@@ -74,12 +81,12 @@ export interface BatchGroup {
   pAdjusted: number | null;
   /** On `pAdjusted` when adjusted, else on `pValue`; null when the group failed. */
   decision: 'reject' | 'not-rejected' | 'not-valid' | null;
-  /** Exact critical values of d for this group's design at alpha (alpha/2 each for two-sided). */
+  /** Exact critical values of d for this group's design at alpha (alpha/2 each for two-sided); null unless asked for. */
   critical: { lower: number; upper: number } | null;
   /** Engine and absolute error bound of the p-value. */
   method: string | null;
   errorBound: number | null;
-  /** Zone of the bounds test, when the bounds apply. */
+  /** Zone of the bounds test, when the bounds apply and critical values were asked for. */
   zone: string | null;
   /** Number of the distinct design this group was tested on (groups with the same number shared one null distribution). */
   design: number | null;
@@ -275,6 +282,15 @@ export function testGroups(
         if (times) times[i] = parseCell(table, rows[i], columns.time!, cells[jt]);
       }
       const { id, reuse } = cache.lookup(x, n, times);
+      const quick = input.critical === true ? null : seriesAnswer(y, reuse, input.alternative ?? 'positive', input.alpha ?? 0.05, times, () => cache.ceiling(id, reuse));
+      if (quick) {
+        out.push({
+          group: label, rows: n, n: quick.n, k: quick.k, d: quick.d, pValue: quick.pValue, pAdjusted: null, decision: quick.decision,
+          critical: null, method: quick.method, errorBound: quick.errorBound, zone: null, design: id, warnings: quick.warnings, error: null,
+        });
+        onProgress?.(g - from + 1);
+        continue;
+      }
       const { result } = runExactDwTest({
         y, x, times, intercept: input.intercept, lag: input.lag, method: input.method, tolerance: input.tolerance,
         alternative: input.alternative, alpha: input.alpha,

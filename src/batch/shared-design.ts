@@ -10,6 +10,7 @@ import { buildDesign, type RegressorInput } from '../model/design.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from '../inference/problem.js';
 import type { DesignReuse } from '../inference/dw-test.js';
 import { bounds as boundsOf } from '../bounds/bounds.js';
+import { densityCeiling } from './group-test.js';
 
 /** A null distribution that remembers its critical values (computed once by the same code). */
 class RememberingDistribution extends DwNullDistribution {
@@ -52,6 +53,9 @@ function sameBytes(a: Uint8Array, b: Uint8Array): boolean {
   return true;
 }
 
+/** Series on one design after which its density ceiling replaces a slope per series. */
+export const SHARED_CEILING_USES = 8;
+
 interface Entry { bytes: Uint8Array; id: number; reuse?: DesignReuse; error?: unknown }
 
 /**
@@ -72,6 +76,8 @@ export class DesignCache {
   private readonly buckets = new Map<string, Entry[]>();
   private readonly dLdU = new Map<string, { dL: number; dU: number }>();
   private count = 0;
+  private readonly uses = new Map<number, number>();
+  private readonly ceilings = new Map<number, number | null>();
   /** Number of series that found their design already prepared. */
   hits = 0;
 
@@ -111,6 +117,18 @@ export class DesignCache {
     // each series gets its own copy of the warning list (the test appends to its own)
     const { problem, bounds } = entry.reuse!;
     return { id: entry.id, reuse: { problem: { ...problem, warnings: [...problem.warnings] }, bounds } };
+  }
+
+  /**
+   * A ceiling of the density of d for a design used by many series (from its
+   * {@link SHARED_CEILING_USES}-th series on; null before, and for small m), computed once.
+   */
+  ceiling(id: number, reuse: DesignReuse): number | null {
+    const uses = (this.uses.get(id) ?? 0) + 1;
+    this.uses.set(id, uses);
+    if (uses < SHARED_CEILING_USES) return null;
+    if (!this.ceilings.has(id)) this.ceilings.set(id, densityCeiling(reuse));
+    return this.ceilings.get(id)!;
   }
 
   private bounds(n: number, kPrime: number, level: number): { dL: number; dU: number } {

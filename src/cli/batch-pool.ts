@@ -8,21 +8,24 @@ import { availableParallelism } from 'node:os';
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { parseCsv, type CsvOptions } from '../data/csv.js';
+import { parseCsv, type CsvOptions, type DataTable } from '../data/csv.js';
 import {
   batchColumns, checkBatchOptions, finishBatch, groupRows, testGroups,
-  type BatchGroup, type BatchInput, type BatchResult,
+  type BatchColumns, type BatchGroup, type BatchGrouping, type BatchInput, type BatchResult,
 } from '../batch/batch.js';
 import { DesignCache } from '../batch/shared-design.js';
 import { DwError } from '../errors.js';
 
-/** What a worker thread is given: the file's text and the batch settings, and its run of groups. */
+/**
+ * What a worker thread is given: the table with only its own rows filled in (the others empty, so
+ * that row numbers in messages stay those of the file), the checked columns, its groups, and the
+ * batch settings.
+ */
 export interface BatchJob {
-  text: string;
-  csv: CsvOptions;
+  table: DataTable;
+  columns: BatchColumns;
+  grouping: BatchGrouping;
   input: Omit<BatchInput, 'table' | 'columns' | 'onProgress'>;
-  from: number;
-  to: number;
 }
 
 /** Messages from a worker thread. */
@@ -36,16 +39,26 @@ export type BatchWorkerMessage =
  *
  * @example
  * ```ts
- * const { groups, designs } = runBatchJob({ text, csv: {}, input: { by: 'shop', y: 'sales' }, from: 0, to: 10 });
+ * const table = parseCsv(text);
+ * const columns = batchColumns(table, { by: 'shop', y: 'sales' });
+ * const { groups, designs } = runBatchJob({ table, columns, grouping: groupRows(table, 'shop'), input: { by: 'shop', y: 'sales' } });
  * ```
  */
 export function runBatchJob(job: BatchJob, onProgress?: (done: number) => void): { groups: BatchGroup[]; designs: number } {
-  const table = parseCsv(job.text, job.csv);
-  const columns = batchColumns(table, job.input);
-  const grouping = groupRows(table, columns.by);
   const cache = new DesignCache({ intercept: job.input.intercept, lag: job.input.lag, method: job.input.method, tolerance: job.input.tolerance });
-  const groups = testGroups(table, grouping, columns, job.input, cache, job.from, job.to, onProgress);
+  const groups = testGroups(job.table, job.grouping, job.columns, job.input, cache, 0, job.grouping.labels.length, onProgress);
   return { groups, designs: cache.size };
+}
+
+/** The part of a table and a grouping that groups `from` to `to` need. */
+function share(table: DataTable, grouping: BatchGrouping, from: number, to: number): { table: DataTable; grouping: BatchGrouping } {
+  const empty: string[] = [];
+  const rows: string[][] = new Array<string[]>(table.rows.length).fill(empty);
+  for (let g = from; g < to; g++) for (const r of grouping.rows[g]) rows[r] = table.rows[r];
+  return {
+    table: { ...table, rows },
+    grouping: { labels: grouping.labels.slice(from, to), rows: grouping.rows.slice(from, to), unlabelled: new Int32Array(0) },
+  };
 }
 
 /** The compiled worker script beside this file, or null when running from TypeScript sources. */
@@ -62,7 +75,14 @@ export function defaultWorkers(): number {
 }
 
 /**
- * The batch of a CSV text, with the groups split among `workers` threads (1: all in this thread).
+ * Data rows below which a batch runs in one thread unless threads are asked for explicitly:
+ * starting a thread costs about as much as testing a few thousand rows (bench/batch.ts).
+ */
+export const THREAD_MIN_ROWS = 40_000;
+
+/**
+ * The batch of a CSV text, with the groups split among `workers` threads (1: all in this thread;
+ * `auto`: one per core when the file has at least {@link THREAD_MIN_ROWS} data rows, else one).
  * File-level errors are thrown before any thread starts.
  *
  * @example
@@ -71,7 +91,7 @@ export function defaultWorkers(): number {
  * ```
  */
 export async function runBatch(
-  text: string, csv: CsvOptions, input: Omit<BatchInput, 'table' | 'columns' | 'onProgress'>, workers: number,
+  text: string, csv: CsvOptions, input: Omit<BatchInput, 'table' | 'columns' | 'onProgress'>, workers: number | 'auto',
   onProgress?: (done: number, total: number) => void,
 ): Promise<BatchResult> {
   checkBatchOptions(input);
@@ -80,7 +100,8 @@ export async function runBatch(
   const grouping = groupRows(table, columns.by);
   const total = grouping.labels.length;
   const script = workerScript();
-  const threads = Math.max(1, Math.min(workers, total, script ? workers : 1));
+  const wanted = workers === 'auto' ? (table.rows.length >= THREAD_MIN_ROWS ? defaultWorkers() : 1) : workers;
+  const threads = Math.max(1, Math.min(wanted, total, script ? wanted : 1));
   if (threads === 1) {
     const cache = new DesignCache({ intercept: input.intercept, lag: input.lag, method: input.method, tolerance: input.tolerance });
     const groups = testGroups(table, grouping, columns, input, cache, 0, total, onProgress ? (d) => onProgress(d, total) : undefined);
@@ -97,7 +118,7 @@ export async function runBatch(
   cuts.push(total);
   const done = new Array<number>(cuts.length - 1).fill(0);
   const parts = await Promise.all(cuts.slice(0, -1).map((from, w) => new Promise<{ groups: BatchGroup[]; designs: number }>((resolveJob, reject) => {
-    const job: BatchJob = { text, csv, input, from, to: cuts[w + 1] };
+    const job: BatchJob = { ...share(table, grouping, from, cuts[w + 1]), columns, input };
     const worker = new Worker(script!, { workerData: job });
     let settled = false;
     worker.on('message', (m: BatchWorkerMessage) => {

@@ -8,7 +8,7 @@ import { runBatchJob, type BatchJob, type BatchWorkerMessage } from './batch-poo
 
 const job = workerData as BatchJob;
 const post = (m: BatchWorkerMessage) => parentPort!.postMessage(m);
-const step = Math.max(1, Math.floor((job.to - job.from) / 100));
+const step = Math.max(1, Math.floor(job.grouping.labels.length / 100));
 try {
   const { groups, designs } = runBatchJob(job, (done) => { if (done % step === 0) post({ kind: 'progress', done }); });
   post({ kind: 'done', groups, designs });

@@ -12,6 +12,7 @@ import { checkAlpha, checkAlternative, type Alternative } from '../core/alternat
 import type { BoundsZone, PowerSummary, DynamicModelCheck } from '../core/result-types.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from './problem.js';
 import { dynamicModelCheck } from '../dynamic/serial-tests.js';
+import { detectLaggedDependent } from '../dynamic/lagged-dependent.js';
 import { boundsZone } from '../bounds/zone.js';
 import { MAX_BOUNDS_N } from '../bounds/spectra.js';
 import { powerForProblem } from '../power/exact-power.js';
@@ -336,7 +337,8 @@ function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode
     warnings.push(`The classical bounds tables (d_L, d_U) are for lag 1 and consecutive observations; ${problem.pairs.lag > 1 ? `at lag ${problem.pairs.lag}` : 'with gaps in time'} they do not apply; the exact p-value does.`);
   }
   let dynamic: DynamicModelCheck | null = null;
-  if (input.y !== undefined) {
+  // detection alone is cheap and the check refits the model: look first (same answer either way)
+  if (input.y !== undefined && (input.laggedDependent !== undefined || laggedDependentPresent(input.y, problem, input.times))) {
     const check = dynamicModelCheck({
       y: input.y, x: input.x, intercept: input.intercept, names: input.names, times: input.times,
       laggedDependent: input.laggedDependent, order: input.bgOrder, alternative,
@@ -374,6 +376,14 @@ function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode
     warnings,
   };
   return { result, problem };
+}
+
+/** Whether a regressor of the prepared design is y lagged one period (the detection of src/dynamic/lagged-dependent.ts). */
+function laggedDependentPresent(y: ArrayLike<number>, problem: DwProblem, times?: ArrayLike<number>): boolean {
+  const { n, names, x, interceptAdded } = problem.factored.design;
+  const columns: Record<string, Float64Array> = {};
+  names.forEach((nm, j) => { if (!(interceptAdded && j === 0)) columns[nm] = x.subarray(j * n, j * n + n); });
+  return detectLaggedDependent(y, columns, times) !== null;
 }
 
 /** Residuals whose component in col(X) is larger than this (relative) are refused. */

@@ -12,7 +12,7 @@ import { ADJUSTMENTS, type Adjustment } from '../../batch/adjust.js';
 import { BATCH_FORMATS, renderBatch, type BatchFormat } from '../../batch/render.js';
 import { choiceOption, integerOption, listOption, methodOption, numberOption, required } from '../args.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, csvOptionsOf } from '../shared.js';
-import { defaultWorkers, runBatch } from '../batch-pool.js';
+import { THREAD_MIN_ROWS, runBatch } from '../batch-pool.js';
 import type { CliIo } from '../io.js';
 import type { Command } from './command.js';
 
@@ -62,7 +62,8 @@ export const batchCommand: Command = {
     adjust: { type: 'string', value: 'METHOD', help: 'adjust the p-values over the groups: holm or bh (default: none)' },
     alternative: { type: 'string', value: 'ALT', help: 'positive (default), negative or two-sided' },
     alpha: { type: 'string', value: 'A', help: 'significance level in (0, 1) (default 0.05)' },
-    workers: { type: 'string', value: 'N', help: 'worker threads (default: one per core; 1 runs in this thread)' },
+    critical: { type: 'boolean', help: 'also compute the exact critical values and the bounds zone of every group (slower when designs differ)' },
+    workers: { type: 'string', value: 'N', help: `worker threads (default: one per core for files of ${THREAD_MIN_ROWS} rows or more, else 1)` },
     format: { type: 'string', value: 'FMT', help: 'markdown (default), csv, latex (booktabs) or json' },
     out: { type: 'string', value: 'FILE', help: 'write the table to FILE instead of the screen' },
     force: { type: 'boolean', help: 'replace the file given to --out if it exists' },
@@ -87,15 +88,15 @@ export const batchCommand: Command = {
     const alternative = choiceOption<Alternative>(values, 'alternative', ['positive', 'negative', 'two-sided'], 'positive');
     const alpha = numberOption(values, 'alpha', 0.05) as number;
     const lag = integerOption(values, 'lag', 1) as number;
-    const workers = integerOption(values, 'workers', defaultWorkers()) as number;
-    if (!(workers >= 1)) throw new DwError('OPTION_VALUE', `--workers must be at least 1 (got ${workers}).`, 'Give the number of threads, e.g. --workers 2.');
+    const workers = values.workers === undefined ? 'auto' : integerOption(values, 'workers') as number;
+    if (workers !== 'auto' && !(workers >= 1)) throw new DwError('OPTION_VALUE', `--workers must be at least 1 (got ${workers}).`, 'Give the number of threads, e.g. --workers 2.');
     const time = typeof values.time === 'string' ? values.time : undefined;
     const path = positionals[0];
     const text = io.readText(path);
     const progress = progressLine(io);
     const batch = await runBatch(text, csvOptionsOf(values, path), {
       by, y, x: listOption(values, 'x'), time, adjust, alternative, alpha,
-      intercept: !values['no-intercept'], lag, method: methodOption(values),
+      intercept: !values['no-intercept'], lag, method: methodOption(values), critical: values.critical === true,
     }, workers, progress.update);
     progress.end();
     const body = renderBatch(batch, format);
