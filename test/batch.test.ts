@@ -130,6 +130,16 @@ describe('exactDwBatch', () => {
     expect(b.summary.groups).toBe(batch.summary.groups + 1);
   });
 
+  it('times that do not increase within a group fail that group, naming the data rows of the file', () => {
+    const text = shopData().replace('\ne,3,', '\ne,2,');
+    const b = exactDwBatch({ table: parseCsv(text, { source: "'shops.csv'" }), by: 'shop', y: 'sales', x: ['price'], time: 'week' });
+    const e = b.groups.find((x) => x.group === 'e')!;
+    expect(e.error?.code).toBe('TIME_INVALID');
+    // e starts after the 4 x 20 rows of a..d: its 2nd and 3rd rows are data rows 82 and 83
+    expect(e.error?.message).toBe("The time 2 appears twice in this group, at data rows 82 and 83.");
+    expect(b.groups.filter((x) => x.error).map((x) => x.group)).toEqual(['e', 'g']);
+  });
+
   it('Holm-adjusted decisions use the adjusted p-values over the groups tested', () => {
     const b = exactDwBatch({ table, by: 'shop', y: 'sales', x: ['price'], time: 'week', adjust: 'holm', alternative: 'two-sided' });
     const fam = b.groups.filter((g) => g.pValue !== null);

@@ -235,6 +235,23 @@ export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y
   return { by: input.by, y: input.y, x, time: input.time ?? null };
 }
 
+/** The times of one group: whole numbers, strictly increasing; errors name the file's data rows. */
+function checkGroupTimes(table: DataTable, rows: Int32Array, column: string, times: Float64Array): void {
+  const where = (i: number) => `data row ${rows[i] + 1}, column '${column}' of ${table.source}`;
+  for (let i = 0; i < times.length; i++) {
+    const detail = { file: table.source, row: rows[i] + 1, column, value: String(times[i]) };
+    if (!Number.isSafeInteger(times[i])) {
+      throw new DwError('TIME_INVALID', `The time ${times[i]} at ${where(i)} is not a whole number.`, 'The time column must hold integers such as years or week numbers.', detail);
+    }
+    if (i > 0 && times[i] === times[i - 1]) {
+      throw new DwError('TIME_INVALID', `The time ${times[i]} appears twice in this group, at data rows ${rows[i - 1] + 1} and ${rows[i] + 1}.`, 'Each period may appear once per group: remove or merge the duplicated row.', detail);
+    }
+    if (i > 0 && times[i] < times[i - 1]) {
+      throw new DwError('TIME_INVALID', `The times of this group decrease at ${where(i)}: ${times[i]} comes after ${times[i - 1]} (data row ${rows[i - 1] + 1}).`, 'Sort the rows of each group by time (oldest first).', detail);
+    }
+  }
+}
+
 function groupError(err: unknown): BatchGroupError {
   if (isDwError(err)) return { code: err.code, message: err.message, hint: err.hint };
   throw err;
@@ -281,6 +298,7 @@ export function testGroups(
         for (let c = 0; c < jx.length; c++) x[columns.x[c]][i] = parseCell(table, rows[i], columns.x[c], cells[jx[c]]);
         if (times) times[i] = parseCell(table, rows[i], columns.time!, cells[jt]);
       }
+      if (times) checkGroupTimes(table, rows, columns.time!, times);
       const { id, reuse } = cache.lookup(x, n, times);
       const quick = input.critical === true ? null : seriesAnswer(y, reuse, input.alternative ?? 'positive', input.alpha ?? 0.05, times, () => cache.ceiling(id, reuse));
       if (quick) {
@@ -383,7 +401,15 @@ export function finishBatch(
   };
 }
 
-/** Check the options that apply to every group, before any group is tested. */
+/**
+ * Check the options that apply to every group, before any group is tested.
+ *
+ * @example
+ * ```ts
+ * checkBatchOptions({ adjust: 'holm', alpha: 0.05 }); // fine
+ * checkBatchOptions({ adjust: 'bonferroni' as never }); // throws OPTION_VALUE
+ * ```
+ */
 export function checkBatchOptions(input: Pick<BatchInput, 'adjust' | 'alternative' | 'alpha' | 'lag'>): void {
   checkAlternative(input.alternative ?? 'positive');
   checkAlpha(input.alpha ?? 0.05);

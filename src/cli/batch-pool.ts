@@ -69,7 +69,14 @@ function workerScript(): string | null {
   return existsSync(script) ? script : null;
 }
 
-/** Threads to use by default: every core the process may use. */
+/**
+ * Threads to use for a large batch: every core the process may use.
+ *
+ * @example
+ * ```ts
+ * defaultWorkers(); // 2 on a two-core machine
+ * ```
+ */
 export function defaultWorkers(): number {
   return Math.max(1, availableParallelism());
 }
