@@ -56,7 +56,7 @@ describe('exact-dw batch', () => {
     expect(tex.out).toMatch(/\\toprule/);
     expect(tex.out).toMatch(/\\midrule/);
     expect(tex.out).toMatch(/\\bottomrule/);
-    expect(tex.out).toMatch(/p_\{\\text\{BH\}\}/);
+    expect(tex.out).toMatch(/p_\{\\mathrm\{BH\}\}/);
   });
 
   it('--out never replaces a file without --force', async () => {

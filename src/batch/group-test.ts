@@ -4,10 +4,11 @@
  * the alternative tested with its error bound, and the decision. It calls the same functions as the
  * single test (src/inference/dw-test.ts), so d and the p-value are the same numbers bit for bit;
  * the error bound is that of the tail(s) tested only (the single test reports the larger of both
- * tails'), and the two small allowances for rounding (in the spectrum, and in X and y: each a
- * density times a rounding size of order 1e-14) use a ceiling of the density instead of the
- * single test's finite-difference slopes: twice the exact density at d, or, for a design shared by
- * many series, twice the largest density on a grid (src/batch/shared-design.ts). A series whose regressors include y
+ * tails'). The allowance for rounding in X and y (a slope of the distribution function times a
+ * rounding size of order 1e-14) is bounded through the tail's own error bound, which already holds
+ * the distribution's slope at d, instead of by two more evaluations; for a design shared by many
+ * series both rounding allowances use a ceiling of the density computed once
+ * (src/batch/shared-design.ts), which saves one evaluation per series. A series whose regressors include y
  * lagged one period, and batches that ask for critical values, go through the single test itself.
  */
 import { durbinWatson } from '../core/difference.js';
@@ -19,7 +20,6 @@ import type { DesignReuse } from '../inference/dw-test.js';
 import type { TailProbability } from '../core/types.js';
 import { tailProbability, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { DwError } from '../errors.js';
-import type { DwNullDistribution } from '../distribution/null-distribution.js';
 
 /** Fewest residual degrees of freedom for a density ceiling (below, the density may be unbounded at the ends). */
 export const CEILING_MIN_M = 8;
@@ -47,12 +47,6 @@ export function densityCeiling(reuse: DesignReuse): number | null {
   let top = 0;
   for (let i = 0; i <= 96; i++) top = Math.max(top, dist.pdf(a + ((b - a) * i) / 96));
   return Number.isFinite(top) && top > 0 ? 2 * top : null;
-}
-
-/** Twice the exact density of d at c (Imhof's density, one evaluation), or null when it is not finite. */
-function localCeiling(dist: DwNullDistribution, c: number): number | null {
-  const v = 2 * dist.pdf(c);
-  return Number.isFinite(v) && v >= 0 ? Math.max(v, 1e-300) : null;
 }
 
 /** What the batch keeps of one series' test. */
@@ -91,10 +85,9 @@ export function seriesAnswer(
   const d = durbinWatson(fit.residuals, problem.pairs);
   const dist = problem.distribution;
   if (!(d >= 0 && d <= 4)) throw new DwError('D_OUT_OF_RANGE', `d = ${d} is outside the possible range [0, 4].`, 'Check the data of this series.');
-  // the design's ceiling when it is shared by many series, else twice the exact density at d itself
-  // (for m >= CEILING_MIN_M: smooth and bounded there); null: the single test's own route
-  const spectral = n <= AUTO_SPECTRUM_MAX_N; // the density needs the spectrum (it is at hand there)
-  const ceiling = !spectral ? null : densityCeiling?.() ?? (dist.m >= CEILING_MIN_M ? localCeiling(dist, d) : null);
+  // the design's density ceiling when it is shared by many series (the density needs the
+  // spectrum, at hand up to AUTO_SPECTRUM_MAX_N); null: the distribution's own tails
+  const ceiling = n <= AUTO_SPECTRUM_MAX_N ? densityCeiling?.() ?? null : null;
   // with a density ceiling, the effect of rounding in the spectrum (the distribution's own
   // finite-difference slope, src/distribution/null-distribution.ts) is bounded by it instead:
   // the same engine call, so the same p, one evaluation fewer
@@ -109,22 +102,30 @@ export function seriesAnswer(
   let pValue: number;
   let errorBound: number;
   let method: string;
+  let tested: TailProbability[];
   if (alternative === 'two-sided') {
     const lower = tailAt('lower');
     const upper = tailAt('upper');
+    tested = [lower, upper];
     pValue = Math.min(1, 2 * Math.min(lower.p, upper.p));
-    const tested = lower.p <= upper.p ? lower : upper;
-    method = tested.method;
+    method = (lower.p <= upper.p ? lower : upper).method;
     errorBound = Math.max(lower.errorBound, upper.errorBound) * (pValue < 1 ? 2 : 1);
   } else {
     const tail = tailAt(alternative === 'positive' ? 'lower' : 'upper');
+    tested = [tail];
     pValue = tail.p;
     method = tail.method;
     errorBound = tail.errorBound;
   }
+  const twice = alternative === 'two-sided' && pValue < 1 ? 2 : 1;
   if (ceiling !== null && dAllowance > 0) {
     // d is known to within dAllowance: add a ceiling of the density of d times that, twice
-    errorBound += 2 * ceiling * dAllowance * (alternative === 'two-sided' && pValue < 1 ? 2 : 1);
+    errorBound += 2 * ceiling * dAllowance * twice;
+  } else if (dAllowance > 0 && delta > 0 && tested.every((t) => t.p > 0 && t.p < 1)) {
+    // the distribution's bound of each tail holds 2 delta s for its slope s at d (plus the engine's
+    // own bound), so s <= bound / (2 delta), and the allowance 2 s dAllowance (as the single test
+    // adds it) is at most bound x dAllowance / delta: no further evaluation needed
+    errorBound += Math.max(...tested.map((t) => t.errorBound)) * (dAllowance / delta) * twice;
   } else if (dAllowance > 0) {
     // d is known to within dAllowance: add the density of d there times that, twice (as the single test)
     const [lo, hi] = dist.support;

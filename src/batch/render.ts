@@ -71,7 +71,7 @@ function headers(batch: BatchResult, f: TableFormat): string[] {
   const h = f === 'latex'
     ? ['Series', '$n$', '$k$', '$d$', '$p$']
     : ['series', '*n*', '*k*', '*d*', '*p*'];
-  if (batch.adjust) h.push(f === 'latex' ? `$p_{\\text{${batch.adjust === 'holm' ? 'Holm' : 'BH'}}}$` : `*p* (${batch.adjust === 'holm' ? 'Holm' : 'BH'})`);
+  if (batch.adjust) h.push(f === 'latex' ? `$p_{\\mathrm{${batch.adjust === 'holm' ? 'Holm' : 'BH'}}}$` : `*p* (${batch.adjust === 'holm' ? 'Holm' : 'BH'})`);
   h.push(f === 'latex' ? 'Decision' : 'decision');
   return h;
 }
