@@ -12,7 +12,7 @@
  * read. The p-values of the two are compared as a check. Tests never read the clock; this does.
  */
 import { mkdtempSync, writeFileSync, readFileSync } from 'node:fs';
-import { tmpdir, cpus, platform, arch } from 'node:os';
+import { tmpdir, cpus, platform, arch, loadavg } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
@@ -97,6 +97,8 @@ async function measure(label: string, series: number, own: boolean, seed: number
   return { label, series, designs: batch.summary.designs, ours, oursAll, ours1, cold, numpy, maxDiff };
 }
 
+const loadBefore = loadavg()[0].toFixed(1);
+
 async function main(): Promise<void> {
   // the first (untimed) run of each case below warms the code (JIT), as any second run would be
 
@@ -124,7 +126,7 @@ ${table}
 * Series have n = 52 weekly observations and k = 3 columns (intercept, price, promotion); time index
   1..52; four series in five have independent normal errors, one in five AR(1) errors with rho = 0.4
   (invented data, seeded). In case A every series has the same regressors, so all share one exact null distribution
-  per worker thread (one spectrum, one pair of critical values, one pair of bounds); in case B each
+  per worker thread (one QR factorisation, one spectrum, one density ceiling); in case B each
   series has its own.
 * exact-dw is timed end to end from the CSV text: parsing, grouping, starting the worker threads,
   and per series the check for a lagged dependent variable, the fit, d, and the exact p-value tested
@@ -140,7 +142,9 @@ ${table}
   pipe), which is what a user waits for; Python's own start-up and imports are not counted.
 * The last column is the largest difference between the two programs' p-values (a check, not a
   timing).
-* The machine is shared with other work while the benchmark runs; times vary from run to run.
+* The machine is shared with other work while the benchmark runs (load average ${loadBefore} when it
+  started, ${loadavg()[0].toFixed(1)} when it ended, on ${cpus().length} cores); times vary from run to run, and worker threads
+  gain little when the cores are already busy.
 `;
   writeFileSync(fileURLToPath(new URL('../../docs/batch-performance.md', import.meta.url)), doc);
   process.stdout.write(`${table}\n\nwrote docs/batch-performance.md\n`);

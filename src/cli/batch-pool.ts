@@ -89,7 +89,7 @@ export const THREAD_MIN_ROWS = 40_000;
 
 /**
  * The batch of a CSV text, with the groups split among `workers` threads (1: all in this thread;
- * `auto`: one per core when the file has at least {@link THREAD_MIN_ROWS} data rows, else one).
+ * `auto`: one per core when the file has more than {@link THREAD_MIN_ROWS} lines, else one).
  * File-level errors are thrown before any thread starts.
  *
  * @example
@@ -102,53 +102,67 @@ export async function runBatch(
   onProgress?: (done: number, total: number) => void,
 ): Promise<BatchResult> {
   checkBatchOptions(input);
-  const table = parseCsv(text, csv);
-  const columns = batchColumns(table, input);
-  const grouping = groupRows(table, columns.by);
-  const total = grouping.labels.length;
   const script = workerScript();
-  const wanted = workers === 'auto' ? (table.rows.length >= THREAD_MIN_ROWS ? defaultWorkers() : 1) : workers;
-  const threads = Math.max(1, Math.min(wanted, total, script ? wanted : 1));
-  if (threads === 1) {
-    const cache = new DesignCache({ intercept: input.intercept, lag: input.lag, method: input.method, tolerance: input.tolerance });
-    const groups = testGroups(table, grouping, columns, input, cache, 0, total, onProgress ? (d) => onProgress(d, total) : undefined);
-    return finishBatch(input, columns, grouping, groups, cache.size);
+  // threads are started first, so that they load while this thread reads the file
+  const wanted = workers === 'auto' ? (lineCount(text) > THREAD_MIN_ROWS ? defaultWorkers() : 1) : workers;
+  const pool = script && wanted > 1 ? Array.from({ length: wanted }, () => new Worker(script)) : [];
+  try {
+    const table = parseCsv(text, csv);
+    const columns = batchColumns(table, input);
+    const grouping = groupRows(table, columns.by);
+    const total = grouping.labels.length;
+    const threads = Math.min(pool.length, total);
+    if (threads <= 1) {
+      const cache = new DesignCache({ intercept: input.intercept, lag: input.lag, method: input.method, tolerance: input.tolerance });
+      const groups = testGroups(table, grouping, columns, input, cache, 0, total, onProgress ? (d) => onProgress(d, total) : undefined);
+      return finishBatch(input, columns, grouping, groups, cache.size);
+    }
+    // contiguous runs of about equal numbers of rows
+    const rowsTotal = grouping.rows.reduce((s, r) => s + r.length, 0);
+    const cuts = [0];
+    let acc = 0;
+    for (let g = 0; g < total && cuts.length < threads; g++) {
+      acc += grouping.rows[g].length;
+      if (acc >= (rowsTotal * cuts.length) / threads && g + 1 < total) cuts.push(g + 1);
+    }
+    cuts.push(total);
+    const done = new Array<number>(cuts.length - 1).fill(0);
+    const parts = await Promise.all(cuts.slice(0, -1).map((from, w) => new Promise<{ groups: BatchGroup[]; designs: number }>((resolveJob, reject) => {
+      const job: BatchJob = { ...share(table, grouping, from, cuts[w + 1]), columns, input };
+      const worker = pool[w];
+      let settled = false;
+      worker.on('message', (m: BatchWorkerMessage) => {
+        if (m.kind === 'progress') {
+          done[w] = m.done;
+          onProgress?.(done.reduce((s, v) => s + v, 0), total);
+        } else if (m.kind === 'done') {
+          settled = true;
+          resolveJob({ groups: m.groups, designs: m.designs });
+        } else {
+          settled = true;
+          reject(new DwError(m.code as DwError['code'], m.message, m.hint));
+        }
+      });
+      worker.on('error', (err) => { if (!settled) { settled = true; reject(err); } });
+      worker.on('exit', (code) => { if (!settled) { settled = true; reject(new Error(`a worker thread stopped with code ${code}`)); } });
+      worker.postMessage(job);
+    })));
+    // design numbers are per thread: shift them so that each prepared design has its own number
+    const groups: BatchGroup[] = [];
+    let offset = 0;
+    for (const part of parts) {
+      for (const g of part.groups) groups.push(g.design === null ? g : { ...g, design: g.design + offset });
+      offset += part.designs;
+    }
+    return finishBatch(input, columns, grouping, groups, offset);
+  } finally {
+    await Promise.all(pool.map((w) => w.terminate()));
   }
-  // contiguous runs of about equal numbers of rows
-  const rowsTotal = grouping.rows.reduce((s, r) => s + r.length, 0);
-  const cuts = [0];
-  let acc = 0;
-  for (let g = 0; g < total && cuts.length < threads; g++) {
-    acc += grouping.rows[g].length;
-    if (acc >= (rowsTotal * cuts.length) / threads && g + 1 < total) cuts.push(g + 1);
-  }
-  cuts.push(total);
-  const done = new Array<number>(cuts.length - 1).fill(0);
-  const parts = await Promise.all(cuts.slice(0, -1).map((from, w) => new Promise<{ groups: BatchGroup[]; designs: number }>((resolveJob, reject) => {
-    const job: BatchJob = { ...share(table, grouping, from, cuts[w + 1]), columns, input };
-    const worker = new Worker(script!, { workerData: job });
-    let settled = false;
-    worker.on('message', (m: BatchWorkerMessage) => {
-      if (m.kind === 'progress') {
-        done[w] = m.done;
-        onProgress?.(done.reduce((s, v) => s + v, 0), total);
-      } else if (m.kind === 'done') {
-        settled = true;
-        resolveJob({ groups: m.groups, designs: m.designs });
-      } else {
-        settled = true;
-        reject(new DwError(m.code as DwError['code'], m.message, m.hint));
-      }
-    });
-    worker.on('error', (err) => { if (!settled) { settled = true; reject(err); } });
-    worker.on('exit', (code) => { if (!settled) { settled = true; reject(new Error(`a worker thread stopped with code ${code}`)); } });
-  })));
-  // design numbers are per thread: shift them so that each prepared design has its own number
-  const groups: BatchGroup[] = [];
-  let offset = 0;
-  for (const part of parts) {
-    for (const g of part.groups) groups.push(g.design === null ? g : { ...g, design: g.design + offset });
-    offset += part.designs;
-  }
-  return finishBatch(input, columns, grouping, groups, offset);
+}
+
+/** Lines of a text (an upper bound on its data rows, counted without parsing). */
+function lineCount(text: string): number {
+  let n = 0;
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
+  return n;
 }
