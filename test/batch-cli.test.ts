@@ -47,6 +47,7 @@ describe('exact-dw batch', () => {
     const md = await cli('batch', ...args, '--adjust', 'holm');
     expect(md.out).toMatch(/^\| series \| \*n\* \| \*k\* \| \*d\* \| \*p\* \| \*p\* \(Holm\) \| decision \|/);
     expect(md.out).toMatch(/st9: .*TOO_FEW_ROWS/);
+    expect(md.out).toMatch(/independent, normally distributed errors .* exogenous regressors .* does not replace, the judgement/);
     const csv = await cli('batch', ...args, '--format', 'csv');
     const lines = csv.out.trim().split('\n');
     expect(lines[0]).toBe('group,n,k,d,p_value,p_adjusted,decision,d_lower_critical,d_upper_critical,error_bound,bounds_zone,design,error_code,error_message');

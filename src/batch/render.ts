@@ -4,7 +4,7 @@
  * JSON (plain data, numbers in their shortest round-trip form).
  */
 import { escapeLatex, escapeMarkdown, fixed, inline, probability } from '../report/format.js';
-import { ADJUSTMENT_NAMES, noteText } from '../report/wording.js';
+import { ADJUSTMENT_NAMES, BATCH_ASSUMPTIONS, noteText } from '../report/wording.js';
 import { VERSION } from '../version.js';
 import type { BatchGroup, BatchResult } from './batch.js';
 
@@ -111,6 +111,7 @@ export function renderBatchMarkdown(batch: BatchResult): string {
     for (const g of failures) lines.push(`- ${escapeMarkdown(groupLabel(g))}: ${escapeMarkdown(`${g.error!.message} ${g.error!.hint}`.trim())} (\`${g.error!.code}\`)`);
   }
   for (const n of batch.notes) if (n.code !== 'BATCH_GROUPS_FAILED') lines.push('', escapeMarkdown(noteText(n)));
+  lines.push('', escapeMarkdown(BATCH_ASSUMPTIONS));
   return lines.join('\n') + '\n';
 }
 
@@ -138,7 +139,7 @@ export function renderBatchLatex(batch: BatchResult): string {
     '\\bottomrule',
     '\\end{tabular}',
   ];
-  const notes = batch.notes.map(noteText);
+  const notes = [...batch.notes.map(noteText), BATCH_ASSUMPTIONS];
   if (notes.length) lines.push(`\\par\\smallskip\\footnotesize ${notes.map(escapeLatex).join(' ')}`);
   lines.push('\\end{table}');
   return lines.join('\n') + '\n';
@@ -165,6 +166,7 @@ export function renderBatchJson(batch: BatchResult): string {
     alternative: batch.alternative, alpha: batch.alpha, adjust: batch.adjust,
     summary: batch.summary,
     notes: batch.notes.map((n) => ({ ...n, text: noteText(n) })),
+    assumptions: BATCH_ASSUMPTIONS,
     groups,
   }, null, 2) + '\n';
 }

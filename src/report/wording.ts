@@ -18,6 +18,9 @@ export type BatchNote =
 /** Every typed note. */
 export type Note = PanelNote | BatchNote;
 
+/** What every batch table states under it. */
+export const BATCH_ASSUMPTIONS = 'Each p-value is exact for its own design under the null of independent, normally distributed errors with constant variance, with exogenous regressors (no lagged dependent variable); the table supports, and does not replace, the judgement of the analyst.';
+
 /** Full names of the adjustments, for tables and reports. */
 export const ADJUSTMENT_NAMES: Record<'holm' | 'bh', string> = {
   holm: 'Holm (1979) step-down, family-wise error rate',
