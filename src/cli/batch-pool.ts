@@ -82,7 +82,7 @@ export function defaultWorkers(): number {
 }
 
 /**
- * Data rows below which a batch runs in one thread unless threads are asked for explicitly:
+ * Lines of a file up to which a batch runs in one thread unless threads are asked for explicitly:
  * starting a thread costs about as much as testing a few thousand rows (bench/batch.ts).
  */
 export const THREAD_MIN_ROWS = 40_000;

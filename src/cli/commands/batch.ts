@@ -63,7 +63,7 @@ export const batchCommand: Command = {
     alternative: { type: 'string', value: 'ALT', help: 'positive (default), negative or two-sided' },
     alpha: { type: 'string', value: 'A', help: 'significance level in (0, 1) (default 0.05)' },
     critical: { type: 'boolean', help: 'also compute the exact critical values and the bounds zone of every group (slower when designs differ)' },
-    workers: { type: 'string', value: 'N', help: `worker threads (default: one per core for files of ${THREAD_MIN_ROWS} rows or more, else 1)` },
+    workers: { type: 'string', value: 'N', help: `worker threads (default: one per core for files of more than ${THREAD_MIN_ROWS} lines, else 1)` },
     format: { type: 'string', value: 'FMT', help: 'markdown (default), csv, latex (booktabs) or json' },
     out: { type: 'string', value: 'FILE', help: 'write the table to FILE instead of the screen' },
     force: { type: 'boolean', help: 'replace the file given to --out if it exists' },
