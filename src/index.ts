@@ -45,3 +45,14 @@ export { eigenfreeForm, type EigenfreeForm } from './engines/eigenfree.js';
 export { fastSpectrum } from './core/fast-spectrum.js';
 export { checkSize, memoryEstimate, checkPowerSize, POWER_MAX_N } from './limits.js';
 export * from './bounds/index.js';
+export {
+  exactDwBatch, batchTable, batchColumns, groupRows, testGroups, finishBatch, checkBatchOptions, MISSING_GROUP_LABEL,
+  type BatchInput, type BatchResult, type BatchGroup, type BatchGroupError, type BatchGrouping, type BatchColumns, type BatchCell,
+} from './batch/batch.js';
+export { adjustPValues, ADJUSTMENTS, type Adjustment } from './batch/adjust.js';
+export { DesignCache, SHARED_CEILING_USES } from './batch/shared-design.js';
+export { seriesAnswer, densityCeiling, CEILING_MIN_M, type SeriesAnswer } from './batch/group-test.js';
+export { renderBatch, renderBatchCsv, renderBatchMarkdown, renderBatchLatex, renderBatchJson, BATCH_FORMATS, type BatchFormat } from './batch/render.js';
+export { preparePanel, reorder, ENTITY_COLUMN_PREFIX, type PanelInput, type PanelSummary, type PreparedPanel } from './panel/panel.js';
+export { noteText, ADJUSTMENT_NAMES, type Note, type PanelNote, type BatchNote } from './report/wording.js';
+export type { DesignReuse } from './inference/dw-test.js';

@@ -15,6 +15,8 @@ export interface CliIo {
   /** Write a new file; refuses to replace an existing one unless `force`. */
   writeText(path: string, text: string, force: boolean): void;
   exists(path: string): boolean;
+  /** True when stderr is a terminal (progress lines may then be redrawn in place). */
+  errIsTerminal?: boolean;
 }
 
 /** The real file system and process streams. */
@@ -24,6 +26,7 @@ export const processIo: CliIo = {
   readText,
   writeText,
   exists: (p) => existsSync(p),
+  errIsTerminal: process.stderr.isTTY === true,
 };
 
 /**

@@ -4,7 +4,7 @@
  */
 import { DwError } from '../errors.js';
 import { TERMINAL_STYLE, formatProbability, type ProbabilityContext } from '../core/format-number.js';
-import { numericColumn, parseCsv, columnIndex, isTextColumn, type DataTable } from '../data/csv.js';
+import { numericColumn, parseCsv, columnIndex, isTextColumn, type CsvOptions, type DataTable } from '../data/csv.js';
 import type { ProblemOptions } from '../inference/problem.js';
 import { choiceOption, integerOption, listOption, methodOption, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliIo } from './io.js';
@@ -180,4 +180,25 @@ export function chooseRegressors(table: DataTable, values: OptionValues, yName: 
  */
 export function formatP(p: number, context: ProbabilityContext = {}): string {
   return formatProbability(p, TERMINAL_STYLE, context).text;
+}
+
+/**
+ * The CSV reading options of the command line (--delimiter, --decimal) for `parseCsv`, for
+ * commands that hand the file's text on (to worker threads) rather than a parsed table.
+ *
+ * @example
+ * ```ts
+ * csvOptionsOf({ delimiter: 'tab' }, 'shops.tsv'); // { delimiter: '\t', decimal: undefined, source: "'shops.tsv'" }
+ * ```
+ */
+export function csvOptionsOf(values: OptionValues, path: string): CsvOptions {
+  const d = values.delimiter;
+  let delimiter: ',' | ';' | '\t' | undefined;
+  if (d !== undefined) {
+    const map: Record<string, ',' | ';' | '\t'> = { ',': ',', comma: ',', ';': ';', semicolon: ';', tab: '\t', '\t': '\t' };
+    delimiter = map[String(d)];
+    if (!delimiter) throw new DwError('OPTION_VALUE', `--delimiter must be ',', ';' or 'tab' (got '${String(d)}').`, "Use --delimiter ';' for files with decimal commas, --delimiter tab for tab-separated files.");
+  }
+  const decimal = values.decimal === undefined ? undefined : choiceOption(values, 'decimal', ['point', 'comma'] as const, 'point');
+  return { delimiter, decimal, source: `'${path}'` };
 }

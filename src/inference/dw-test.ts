@@ -12,10 +12,13 @@ import { checkAlpha, checkAlternative, type Alternative } from '../core/alternat
 import type { BoundsZone, PowerSummary, DynamicModelCheck } from '../core/result-types.js';
 import { prepareProblem, type DwProblem, type ProblemOptions } from './problem.js';
 import { dynamicModelCheck } from '../dynamic/serial-tests.js';
+import { detectLaggedDependent } from '../dynamic/lagged-dependent.js';
 import { boundsZone } from '../bounds/zone.js';
 import { MAX_BOUNDS_N } from '../bounds/spectra.js';
 import { powerForProblem } from '../power/exact-power.js';
 import type { ErrorProcess } from '../power/weights.js';
+import { preparePanel, reorder, type PanelInput, type PanelSummary } from '../panel/panel.js';
+import { noteText, type PanelNote } from '../report/wording.js';
 
 /** The alternative hypothesis: positive or negative first-order autocorrelation, or either. */
 export type { Alternative } from '../core/alternative.js';
@@ -42,6 +45,20 @@ export interface DwTestInput extends ProblemOptions {
   bgOrder?: number;
   /** Exact power of this test against AR(1) errors at these rho (and the rho reaching `target`, default 0.8). */
   power?: { rho: ArrayLike<number>; target?: number; process?: ErrorProcess };
+  /**
+   * Panel data: the entity and time of each row. One pooled regression on all rows, differences
+   * only between times `lag` apart within the same entity; `entityEffects` replaces the intercept
+   * by one indicator per entity. Not together with `times` (the panel's own times are used).
+   */
+  panel?: PanelInput;
+}
+
+/** A prepared design shared by several series with the same design (see src/batch/). */
+export interface DesignReuse {
+  /** The problem prepared for exactly this design and these options. */
+  problem: DwProblem;
+  /** d_L and d_U for (n, k', level), remembered across series. */
+  bounds?: (n: number, kPrime: number, level: number) => { dL: number; dU: number };
 }
 
 /** Exact p-values of an observed d. */
@@ -104,8 +121,10 @@ export interface DwTestResult extends DwPValues {
   power: PowerSummary | null;
   /** When a lagged dependent variable is among the regressors: d is not valid, and these tests replace it. */
   dynamic: DynamicModelCheck | null;
-  /** True when the time column has gaps, so that some differences are missing. */
+  /** True when the time column has gaps, so that some differences are missing (always, for a panel of several entities). */
   gaps: boolean;
+  /** The pooled panel design, when the input was a panel (absent otherwise). */
+  panel?: PanelSummary & { notes: PanelNote[] };
   warnings: string[];
 }
 
@@ -204,7 +223,51 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
  * renderDensitySvg(result, problem.distribution);
  * ```
  */
-export function runExactDwTest(input: DwTestInput): { result: DwTestResult; problem: DwProblem } {
+export function runExactDwTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTestResult; problem: DwProblem } {
+  if (input.panel !== undefined) return runPanelTest(input, reuse);
+  return runSeries(input, reuse, false);
+}
+
+/**
+ * The pooled panel test: rows ordered entity by entity, times on one axis with a gap of more than
+ * the lag between entities (src/panel/panel.ts), then the ordinary test on that design.
+ */
+function runPanelTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTestResult; problem: DwProblem } {
+  const panel = input.panel!;
+  if (input.times !== undefined) {
+    throw new DwError('OPTION_CONFLICT', 'A panel brings its own times; separate observation times cannot be given as well.', 'Give the time of each row with the panel only.');
+  }
+  if (input.power !== undefined) {
+    throw new DwError('OPTION_CONFLICT', 'Exact power against AR(1) errors is not available for a pooled panel (it would need one error process per entity).',
+      'Test the panel without power, or compute the power of one entity as a single series.');
+  }
+  if ((input.y === undefined) === (input.residuals === undefined)) {
+    throw new DwError('OPTION_CONFLICT', 'Give exactly one of y and residuals.', 'Pass y to fit the regression here, or the residuals of your own fit.');
+  }
+  const series = (input.y ?? input.residuals) as ArrayLike<number>;
+  const n = series.length;
+  const prepared = preparePanel(panel, input.x, n, input.lag ?? 1, input.intercept ?? true, input.names);
+  const ordered = reorder(series, prepared.order);
+  const { result, problem } = runSeries({
+    ...input,
+    panel: undefined,
+    x: prepared.x,
+    names: undefined,
+    intercept: prepared.intercept,
+    times: prepared.axis,
+    y: input.y !== undefined ? ordered : undefined,
+    residuals: input.residuals !== undefined ? ordered : undefined,
+  }, reuse, true);
+  const notes: PanelNote[] = [];
+  if (prepared.summary.entityEffects && prepared.summary.entities > 1) notes.push({ code: 'ENTITY_EFFECTS_BOUNDS_NOT_APPLICABLE', entities: prepared.summary.entities });
+  else if (result.bounds === null && prepared.summary.entities > 1) notes.push({ code: 'PANEL_BOUNDS_NOT_APPLICABLE', entities: prepared.summary.entities });
+  if (prepared.summary.entityEffects && prepared.summary.entities > 1) result.bounds = null;
+  result.panel = { ...prepared.summary, pairs: problem.pairs.from.length, notes };
+  result.warnings.push(...notes.map(noteText));
+  return { result, problem };
+}
+
+function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode: boolean): { result: DwTestResult; problem: DwProblem } {
   const alternative = input.alternative ?? 'positive';
   checkAlternative(alternative);
   const alpha = input.alpha ?? 0.05;
@@ -214,7 +277,7 @@ export function runExactDwTest(input: DwTestInput): { result: DwTestResult; prob
   }
   const series = (input.y ?? input.residuals) as ArrayLike<number>;
   const n = series.length;
-  const problem = prepareProblem(input.x, n, input);
+  const problem = reuse?.problem ?? prepareProblem(input.x, n, input);
   const { design } = problem.factored;
   const warnings = [...problem.warnings];
   let residuals: Float64Array;
@@ -270,11 +333,12 @@ export function runExactDwTest(input: DwTestInput): { result: DwTestResult; prob
     warnings.push('The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.');
   }
   const gaps = problem.pairs.from.length < n - problem.pairs.lag;
-  if (problem.pairs.lag > 1 || gaps) {
+  if ((problem.pairs.lag > 1 || gaps) && !panelMode) {
     warnings.push(`The classical bounds tables (d_L, d_U) are for lag 1 and consecutive observations; ${problem.pairs.lag > 1 ? `at lag ${problem.pairs.lag}` : 'with gaps in time'} they do not apply; the exact p-value does.`);
   }
   let dynamic: DynamicModelCheck | null = null;
-  if (input.y !== undefined) {
+  // detection alone is cheap and the check refits the model: look first (same answer either way)
+  if (input.y !== undefined && (input.laggedDependent !== undefined || laggedDependentPresent(input.y, problem, input.times))) {
     const check = dynamicModelCheck({
       y: input.y, x: input.x, intercept: input.intercept, names: input.names, times: input.times,
       laggedDependent: input.laggedDependent, order: input.bgOrder, alternative,
@@ -302,13 +366,24 @@ export function runExactDwTest(input: DwTestInput): { result: DwTestResult; prob
     dValid: dynamic === null,
     nullMean: dist.mean,
     nullVariance: dist.variance,
-    bounds: boundsApply && !dynamic ? boundsZone(d, n, design.k - 1, alpha, alternative, pValue, { exactPErrorBound: p.errorBound }) : null,
+    bounds: boundsApply && !dynamic ? boundsZone(d, n, design.k - 1, alpha, alternative, pValue, {
+      exactPErrorBound: p.errorBound,
+      known: reuse?.bounds?.(n, design.k - 1, alternative === 'two-sided' ? alpha / 2 : alpha),
+    }) : null,
     power: input.power ? powerForProblem(problem, { ...input.power, alpha, alternative, times: input.times }) : null,
     dynamic,
     gaps,
     warnings,
   };
   return { result, problem };
+}
+
+/** Whether a regressor of the prepared design is y lagged one period (the detection of src/dynamic/lagged-dependent.ts). */
+function laggedDependentPresent(y: ArrayLike<number>, problem: DwProblem, times?: ArrayLike<number>): boolean {
+  const { n, names, x, interceptAdded } = problem.factored.design;
+  const columns: Record<string, Float64Array> = {};
+  names.forEach((nm, j) => { if (!(interceptAdded && j === 0)) columns[nm] = x.subarray(j * n, j * n + n); });
+  return detectLaggedDependent(y, columns, times) !== null;
 }
 
 /** Residuals whose component in col(X) is larger than this (relative) are refused. */

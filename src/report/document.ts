@@ -119,7 +119,9 @@ export function boundsAbsentReason(r: DwTestResult): string {
   const why: string[] = [];
   if (!r.intercept) why.push('the model has no intercept, and the bounds assume one');
   if (r.lag > 1) why.push(`the statistic uses differences at lag ${r.lag}, and the classical bounds are for lag 1`);
-  if (r.gaps) why.push('the time index has gaps, so some differences are missing and the bounds do not hold');
+  if (r.panel && r.panel.entityEffects && r.panel.entities > 1) why.push(`the intercept is replaced by one indicator per entity (${r.panel.entities} entities), and the bounds assume a single intercept and one chain of differences`);
+  else if (r.panel && r.panel.entities > 1) why.push(`the pooled panel has ${r.panel.entities} entities, so the differences form ${r.panel.entities} separate chains, and the bounds assume one`);
+  else if (r.gaps) why.push('the time index has gaps, so some differences are missing and the bounds do not hold');
   if (why.length === 0) return 'The bounds were not computed for this run; the exact test above does not need them.';
   return `The bounds test (${sym('dL')}, ${sym('dU')}) does not apply here: ${andList(why)}. The exact test above does not need it.`;
 }
@@ -142,6 +144,7 @@ export function engineWords(method: string): string {
 
 function interceptWords(r: DwTestResult): string {
   if (!r.intercept) return 'none';
+  if (r.panel?.entityEffects) return `one indicator per entity (${r.panel.entities}), instead of a common intercept`;
   return r.interceptAdded ? 'added by exact-dw' : 'a constant column of the data (detected, not duplicated)';
 }
 
@@ -385,10 +388,12 @@ export function buildReport(r: DwTestResult): ReportDocument {
     statRows.push([`Exact null standard deviation of ${sym('d')}`, fixed(Math.sqrt(r.nullVariance), D_DECIMALS)]);
   }
   statRows.push(['Differences', r.lag > 1 ? `lag ${r.lag} ${cite('wallis-1972')}` : 'lag 1']);
-  if (r.gaps) statRows.push(['Time index', `has gaps: only pairs exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart are differenced`]);
+  if (r.panel) statRows.push(['Panel', `${r.panel.entities} entities (${r.panel.smallest} to ${r.panel.largest} periods each), ${r.panel.pairs} differences, each within one entity${r.panel.entityEffects ? '; one indicator per entity instead of the intercept' : ''}`]);
+  else if (r.gaps) statRows.push(['Time index', `has gaps: only pairs exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart are differenced`]);
   const statBlocks: ReportBlock[] = [
     para(`${dFormula(r.lag)}, from the least-squares residuals e ${cite('durbin-watson-1950', 'durbin-watson-1951')}` +
-      (r.gaps ? `; the sum in the numerator runs over the pairs of observations exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart.` : '.')),
+      (r.panel ? `; the sum in the numerator runs over the pairs of observations of the same entity exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart (one pooled regression on every entity).`
+        : r.gaps ? `; the sum in the numerator runs over the pairs of observations exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart.` : '.')),
     { kind: 'fields', rows: statRows },
   ];
   if (!valid) statBlocks.push(para(`Shown for reference only: ${sym('d')} is not a valid test in this model.`));

@@ -1,6 +1,7 @@
 /** Every CLI command, in the order `exact-dw help` lists them. */
 import type { Command } from './command.js';
 import { testCommand } from './test.js';
+import { batchCommand } from './batch.js';
 import { pvalueCommand } from './pvalue.js';
 import { criticalCommand } from './critical.js';
 import { powerCommand } from './power.js';
@@ -11,6 +12,7 @@ import { demoCommand } from './demo.js';
 
 export const COMMANDS: Command[] = [
   testCommand,
+  batchCommand,
   pvalueCommand,
   criticalCommand,
   powerCommand,

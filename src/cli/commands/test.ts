@@ -23,6 +23,7 @@ import type { CliIo } from '../io.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, chooseRegressors, loadTable, problemOptions } from '../shared.js';
 import type { Command } from './command.js';
 import { parseRhoList } from './power.js';
+import { PANEL_OPTIONS, panelFromOptions } from '../panel-options.js';
 
 /** Report formats. */
 export const REPORT_FORMATS = ['text', 'markdown', 'latex', 'json'] as const;
@@ -174,6 +175,7 @@ export const testCommand: Command = {
     'lagged-dependent': { type: 'string', value: 'COL', help: "the regressor that is y lagged one period (detected when omitted); d is then not valid and Durbin's h and Breusch-Godfrey are reported" },
     'bg-order': { type: 'string', value: 'P', help: 'order of the Breusch-Godfrey test for a dynamic model (default 1)' },
     ...MODEL_OPTIONS,
+    ...PANEL_OPTIONS,
     ...CSV_OPTIONS,
     ...REPORT_OPTIONS,
   },
@@ -188,14 +190,17 @@ export const testCommand: Command = {
     const table = loadTable(io, positionals[0], values);
     const yName = required(values, 'y', 'test');
     const y = numericColumn(table, yName);
-    const x: RegressorInput = chooseRegressors(table, values, yName);
-    const options: ProblemOptions = problemOptions(values, table);
+    const regressors = chooseRegressors(table, values, yName);
+    const panel = panelFromOptions(values, table, regressors);
+    const x: RegressorInput = regressors;
+    // a panel's times restart in each entity: they go with the panel, not with the single-series options
+    const options: ProblemOptions = problemOptions(panel ? { ...values, time: undefined } : values, table);
     const laggedDependent = typeof values['lagged-dependent'] === 'string' ? values['lagged-dependent'] : undefined;
     const bgOrder = integerOption(values, 'bg-order', 1);
     const power = typeof values.power === 'string'
       ? { rho: parseRhoList(values.power), target: numberOption(values, 'target', 0.8) as number }
       : undefined;
-    const { result, problem } = runExactDwTest({ y, x, alternative, alpha, ...options, laggedDependent, bgOrder, power });
+    const { result, problem } = runExactDwTest({ y, x, alternative, alpha, ...options, laggedDependent, bgOrder, power, panel });
     // the figure needs the null distribution itself: rebuild it from the same design and options
     writeOutputs(io, result, values, files, () => problem);
     return 0;

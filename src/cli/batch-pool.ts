@@ -1,0 +1,168 @@
+/**
+ * Node-only: the groups of a batch split among worker threads (node:worker_threads), each thread
+ * with its own cache of prepared designs, the parts put together in the order of the groups.
+ * Groups are split into contiguous runs of about equal numbers of rows, so that groups next to each
+ * other (often the same design) stay on one thread. Never imported by the web page.
+ */
+import { availableParallelism } from 'node:os';
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { Worker } from 'node:worker_threads';
+import { parseCsv, type CsvOptions, type DataTable } from '../data/csv.js';
+import {
+  batchColumns, checkBatchOptions, finishBatch, groupRows, testGroups,
+  type BatchColumns, type BatchGroup, type BatchGrouping, type BatchInput, type BatchResult,
+} from '../batch/batch.js';
+import { DesignCache } from '../batch/shared-design.js';
+import { DwError } from '../errors.js';
+
+/**
+ * What a worker thread is given: the table with only its own rows filled in (the others empty, so
+ * that row numbers in messages stay those of the file), the checked columns, its groups, and the
+ * batch settings.
+ */
+export interface BatchJob {
+  table: DataTable;
+  columns: BatchColumns;
+  grouping: BatchGrouping;
+  input: Omit<BatchInput, 'table' | 'columns' | 'onProgress'>;
+}
+
+/** Messages from a worker thread. */
+export type BatchWorkerMessage =
+  | { kind: 'progress'; done: number }
+  | { kind: 'done'; groups: BatchGroup[]; designs: number }
+  | { kind: 'error'; code: string; message: string; hint: string };
+
+/**
+ * Run one job in this thread (what each worker thread does).
+ *
+ * @example
+ * ```ts
+ * const table = parseCsv(text);
+ * const columns = batchColumns(table, { by: 'shop', y: 'sales' });
+ * const { groups, designs } = runBatchJob({ table, columns, grouping: groupRows(table, 'shop'), input: { by: 'shop', y: 'sales' } });
+ * ```
+ */
+export function runBatchJob(job: BatchJob, onProgress?: (done: number) => void): { groups: BatchGroup[]; designs: number } {
+  const cache = new DesignCache({ intercept: job.input.intercept, lag: job.input.lag, method: job.input.method, tolerance: job.input.tolerance });
+  const groups = testGroups(job.table, job.grouping, job.columns, job.input, cache, 0, job.grouping.labels.length, onProgress);
+  return { groups, designs: cache.size };
+}
+
+/** The part of a table and a grouping that groups `from` to `to` need. */
+function share(table: DataTable, grouping: BatchGrouping, from: number, to: number): { table: DataTable; grouping: BatchGrouping } {
+  const empty: string[] = [];
+  const rows: string[][] = new Array<string[]>(table.rows.length).fill(empty);
+  for (let g = from; g < to; g++) for (const r of grouping.rows[g]) rows[r] = table.rows[r];
+  return {
+    table: { ...table, rows },
+    grouping: { labels: grouping.labels.slice(from, to), rows: grouping.rows.slice(from, to), unlabelled: new Int32Array(0) },
+  };
+}
+
+/** The compiled worker script beside this file, or null when running from TypeScript sources. */
+function workerScript(): string | null {
+  const here = fileURLToPath(import.meta.url);
+  if (!here.endsWith('.js')) return null;
+  const script = here.replace(/batch-pool\.js$/, 'batch-worker.js');
+  return existsSync(script) ? script : null;
+}
+
+/**
+ * Threads to use for a large batch: every core the process may use.
+ *
+ * @example
+ * ```ts
+ * defaultWorkers(); // 2 on a two-core machine
+ * ```
+ */
+export function defaultWorkers(): number {
+  return Math.max(1, availableParallelism());
+}
+
+/**
+ * Lines of a file up to which a batch runs in one thread unless threads are asked for explicitly:
+ * starting a thread costs about as much as testing a few thousand rows (bench/batch.ts).
+ */
+export const THREAD_MIN_ROWS = 40_000;
+
+/**
+ * The batch of a CSV text, with the groups split among `workers` threads (1: all in this thread;
+ * `auto`: one per core when the file has more than {@link THREAD_MIN_ROWS} lines, else one).
+ * File-level errors are thrown before any thread starts.
+ *
+ * @example
+ * ```ts
+ * const batch = await runBatch(text, { source: "'shops.csv'" }, { by: 'shop', y: 'sales', adjust: 'bh' }, 2);
+ * ```
+ */
+export async function runBatch(
+  text: string, csv: CsvOptions, input: Omit<BatchInput, 'table' | 'columns' | 'onProgress'>, workers: number | 'auto',
+  onProgress?: (done: number, total: number) => void,
+): Promise<BatchResult> {
+  checkBatchOptions(input);
+  const script = workerScript();
+  // threads are started first, so that they load while this thread reads the file
+  const wanted = workers === 'auto' ? (lineCount(text) > THREAD_MIN_ROWS ? defaultWorkers() : 1) : workers;
+  const pool = script && wanted > 1 ? Array.from({ length: wanted }, () => new Worker(script)) : [];
+  try {
+    const table = parseCsv(text, csv);
+    const columns = batchColumns(table, input);
+    const grouping = groupRows(table, columns.by);
+    const total = grouping.labels.length;
+    const threads = Math.min(pool.length, total);
+    if (threads <= 1) {
+      const cache = new DesignCache({ intercept: input.intercept, lag: input.lag, method: input.method, tolerance: input.tolerance });
+      const groups = testGroups(table, grouping, columns, input, cache, 0, total, onProgress ? (d) => onProgress(d, total) : undefined);
+      return finishBatch(input, columns, grouping, groups, cache.size);
+    }
+    // contiguous runs of about equal numbers of rows
+    const rowsTotal = grouping.rows.reduce((s, r) => s + r.length, 0);
+    const cuts = [0];
+    let acc = 0;
+    for (let g = 0; g < total && cuts.length < threads; g++) {
+      acc += grouping.rows[g].length;
+      if (acc >= (rowsTotal * cuts.length) / threads && g + 1 < total) cuts.push(g + 1);
+    }
+    cuts.push(total);
+    const done = new Array<number>(cuts.length - 1).fill(0);
+    const parts = await Promise.all(cuts.slice(0, -1).map((from, w) => new Promise<{ groups: BatchGroup[]; designs: number }>((resolveJob, reject) => {
+      const job: BatchJob = { ...share(table, grouping, from, cuts[w + 1]), columns, input };
+      const worker = pool[w];
+      let settled = false;
+      worker.on('message', (m: BatchWorkerMessage) => {
+        if (m.kind === 'progress') {
+          done[w] = m.done;
+          onProgress?.(done.reduce((s, v) => s + v, 0), total);
+        } else if (m.kind === 'done') {
+          settled = true;
+          resolveJob({ groups: m.groups, designs: m.designs });
+        } else {
+          settled = true;
+          reject(new DwError(m.code as DwError['code'], m.message, m.hint));
+        }
+      });
+      worker.on('error', (err) => { if (!settled) { settled = true; reject(err); } });
+      worker.on('exit', (code) => { if (!settled) { settled = true; reject(new Error(`a worker thread stopped with code ${code}`)); } });
+      worker.postMessage(job);
+    })));
+    // design numbers are per thread: shift them so that each prepared design has its own number
+    const groups: BatchGroup[] = [];
+    let offset = 0;
+    for (const part of parts) {
+      for (const g of part.groups) groups.push(g.design === null ? g : { ...g, design: g.design + offset });
+      offset += part.designs;
+    }
+    return finishBatch(input, columns, grouping, groups, offset);
+  } finally {
+    await Promise.all(pool.map((w) => w.terminate()));
+  }
+}
+
+/** Lines of a text (an upper bound on its data rows, counted without parsing). */
+function lineCount(text: string): number {
+  let n = 0;
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++;
+  return n;
+}
