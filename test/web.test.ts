@@ -103,11 +103,12 @@ function expectShown(text: string, value: number, finest = 5e-4): void {
 }
 
 /** The library's result as JSON (what `exact-dw test --format json` prints), for the demo data. */
-function libraryJson(input: Omit<Partial<DwTestInput>, 'x'> & { x: string[]; time?: string }): DwTestResult {
+function libraryJson(input: Omit<Partial<DwTestInput>, 'x' | 'time'> & { x: string[]; time?: string }): DwTestResult {
   const table = parseCsv(demoCsv);
   const x = Object.fromEntries(input.x.map((c) => [c, numericColumn(table, c)]));
   const times = input.time ? numericColumn(table, input.time) : undefined;
-  const result = exactDwTest({ ...input, y: numericColumn(table, 'yield_kg'), x, times });
+  const { time: _time, ...rest } = input;
+  const result = exactDwTest({ ...rest, y: numericColumn(table, 'yield_kg'), x, times });
   return JSON.parse(JSON.stringify(result)) as DwTestResult;
 }
 

@@ -4,7 +4,7 @@
  * the exact critical values at alpha, and the decision.
  */
 import { DwError } from '../errors.js';
-import { durbinWatson } from '../core/difference.js';
+import { durbinWatson, differencePairs } from '../core/difference.js';
 import type { EngineName, MethodChoice } from '../core/types.js';
 import { fitLeastSquares, type Coefficient } from '../model/ols.js';
 import { designErrorAllowance, rowCount, type RegressorInput } from '../model/design.js';
@@ -16,6 +16,31 @@ import { boundsZone } from '../bounds/zone.js';
 import { MAX_BOUNDS_N } from '../bounds/spectra.js';
 import { powerForProblem } from '../power/exact-power.js';
 import type { ErrorProcess } from '../power/weights.js';
+import { breuschGodfrey, type BreuschGodfrey } from '../dynamic/serial-tests.js';
+import { VERSION } from '../version.js';
+import type { TimeFrequency } from '../data/time-index.js';
+import { resolveDataInput, type DroppedRows, type TimeColumnInfo, type TimeLabelsInput } from './data-input.js';
+import type { DwWarning } from './warnings.js';
+
+export type { DwWarning, DwWarningCode } from './warnings.js';
+export type { DroppedRows, TimeColumnInfo, TimeLabelsInput } from './data-input.js';
+
+/** Where the data came from, as the caller describes it (the library reads no file). */
+export interface InputDescription {
+  /** File name (or a description such as "pasted text"). */
+  name: string;
+  /** SHA-256 of the bytes read, in lower-case hexadecimal. */
+  sha256?: string;
+  /** Size in bytes. */
+  bytes?: number;
+}
+
+/** Reproducibility record of a result: the input, the options used and the software. */
+export interface Provenance {
+  input?: InputDescription;
+  /** The options of the run as the caller gave them (e.g. the command-line options). */
+  options?: Record<string, string | number | boolean | string[]>;
+}
 
 /** The alternative hypothesis: positive or negative first-order autocorrelation, or either. */
 export type { Alternative } from '../core/alternative.js';
@@ -38,8 +63,30 @@ export interface DwTestInput extends ProblemOptions {
    * and the Breusch-Godfrey test). Detected from the data when omitted; `false` turns detection off.
    */
   laggedDependent?: string | false;
-  /** Order of the Breusch-Godfrey test reported when the model is dynamic (default 1). */
+  /**
+   * Order p of the Breusch-Godfrey test (default 1; 4 is usual for quarterly data), reported next
+   * to d for a static model and in place of d for a dynamic one.
+   */
   bgOrder?: number;
+  /**
+   * Time labels (integers, 2015Q1 or 2015-Q1, 2015-01, 2015-01-31) instead of `times`; parsed by
+   * {@link parseTimeLabels}, the frequency inferred and reported.
+   */
+  time?: TimeLabelsInput;
+  /**
+   * The column of `x` (named columns) that is the time index, taken out of the regressors; when
+   * omitted the time-index rule may pick one (see README); `false` turns the rule off.
+   */
+  timeColumn?: string | false;
+  /** Frequency of the time index instead of the inferred one. */
+  frequency?: TimeFrequency;
+  /**
+   * Drop the rows with a missing value (NaN, null) in y, a regressor or the time index; they are
+   * listed in `droppedRows` and become gaps. Without it such values are refused.
+   */
+  dropMissing?: boolean;
+  /** Input file and options, copied into the result for reproducibility. */
+  provenance?: Provenance;
   /** Exact power of this test against AR(1) errors at these rho (and the rho reaching `target`, default 0.8). */
   power?: { rho: ArrayLike<number>; target?: number; process?: ErrorProcess };
 }
@@ -106,7 +153,26 @@ export interface DwTestResult extends DwPValues {
   dynamic: DynamicModelCheck | null;
   /** True when the time column has gaps, so that some differences are missing. */
   gaps: boolean;
-  warnings: string[];
+  /** The time index used (null: the rows are consecutive periods). */
+  timeColumn: TimeColumnInfo | null;
+  /** Rows dropped for missing values (null when none were). */
+  droppedRows: DroppedRows | null;
+  /**
+   * First-order autocorrelation of the residuals, sum e_t e_{t-1} / sum e_t^2 over the pairs one
+   * period apart (gaps honoured); 1 - d/2 approximates it at lag 1 (common practice).
+   */
+  rhoHat: number;
+  /**
+   * Breusch-Godfrey LM test of order p (asymptotic) for a static model with y given; for a dynamic
+   * model it is in `dynamic`, and null here.
+   */
+  breuschGodfrey: BreuschGodfrey | null;
+  /** The input and options (as described by the caller) and the software version. */
+  input: InputDescription | null;
+  options: Provenance['options'] | null;
+  software: { name: 'exact-dw'; version: string };
+  /** Notes on the result as typed codes; the words are in src/report/wording.ts. */
+  warnings: DwWarning[];
 }
 
 export { checkAlpha } from '../core/alternative.js';
@@ -212,30 +278,33 @@ export function runExactDwTest(input: DwTestInput): { result: DwTestResult; prob
   if ((input.y === undefined) === (input.residuals === undefined)) {
     throw new DwError('OPTION_CONFLICT', 'Give exactly one of y and residuals.', 'Pass y to fit the regression here, or the residuals of your own fit.');
   }
-  const series = (input.y ?? input.residuals) as ArrayLike<number>;
+  const data = resolveDataInput(input);
+  const x = data.x;
+  const times = data.times;
+  const series = (data.y ?? data.residuals) as ArrayLike<number>;
   const n = series.length;
-  const problem = prepareProblem(input.x, n, input);
+  const problem = prepareProblem(x, n, { ...input, times });
   const { design } = problem.factored;
-  const warnings = [...problem.warnings];
+  const warnings: DwWarning[] = [...data.warnings, ...problem.warnings];
   let residuals: Float64Array;
   let coefficients: Coefficient[] | null = null;
   let rSquared: number | null = null;
   // how far rounding in X and y can move d itself (measured bound, src/model/design.ts)
   let dAllowance = 0;
-  if (input.y !== undefined) {
-    const fit = fitLeastSquares(problem.factored, input.y);
+  if (data.y !== undefined) {
+    const fit = fitLeastSquares(problem.factored, data.y);
     residuals = fit.residuals;
     coefficients = fit.coefficients;
     rSquared = fit.rSquared;
     dAllowance = designErrorAllowance(problem.factored.condition, fit.amplification);
   } else {
-    const raw = input.residuals as ArrayLike<unknown>;
+    const raw = data.residuals as ArrayLike<unknown>;
     for (let i = 0; i < n; i++) {
       if (typeof raw[i] !== 'number') {
         throw new DwError('CELL_NOT_NUMERIC', `Residual ${i + 1} is ${String(raw[i])}, not a number.`, 'Every residual must be a finite number.', { row: i + 1 });
       }
     }
-    residuals = Float64Array.from(input.residuals as ArrayLike<number>);
+    residuals = Float64Array.from(data.residuals as ArrayLike<number>);
     for (let i = 0; i < n; i++) {
       if (!Number.isFinite(residuals[i])) {
         throw new DwError('CELL_NOT_FINITE', `Residual ${i + 1} is ${residuals[i]}.`, 'Every residual must be a finite number.', { row: i + 1 });
@@ -260,26 +329,30 @@ export function runExactDwTest(input: DwTestInput): { result: DwTestResult; prob
   const dist = problem.distribution;
   const critical = { lower: dist.quantile(tailLevel), upper: dist.upperQuantile(tailLevel), tailLevel };
   const interceptInEffect = problem.factored.spansConstant;
-  if (input.times === undefined) {
+  if (Array.isArray(x)) {
+    // rows carry no column names for the rule; still flag a gapped-looking column
     const index = timeLikeColumn(design.x, design.n, design.names);
-    if (index) {
-      warnings.push(`The regressor '${index}' looks like a time index with gaps (increasing whole numbers that skip some values); if it is one, give it as the time column (--time ${index}) so that d is taken only between observations exactly one period apart.`);
-    }
+    if (index && times === undefined) warnings.push({ code: 'TIME_GAPS_NOT_HONOURED', column: index });
   }
-  if (!interceptInEffect) {
-    warnings.push('The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.');
-  }
+  if (!interceptInEffect) warnings.push({ code: 'BOUNDS_NO_INTERCEPT' });
   const gaps = problem.pairs.from.length < n - problem.pairs.lag;
-  if (problem.pairs.lag > 1 || gaps) {
-    warnings.push(`The classical bounds tables (d_L, d_U) are for lag 1 and consecutive observations; ${problem.pairs.lag > 1 ? `at lag ${problem.pairs.lag}` : 'with gaps in time'} they do not apply; the exact p-value does.`);
-  }
+  if (problem.pairs.lag > 1 || gaps) warnings.push({ code: 'BOUNDS_LAG_OR_GAPS', lag: problem.pairs.lag, gaps });
+  const rhoHat = firstOrderAutocorrelation(residuals, times);
   let dynamic: DynamicModelCheck | null = null;
-  if (input.y !== undefined) {
+  let bg: BreuschGodfrey | null = null;
+  if (data.y !== undefined) {
     const check = dynamicModelCheck({
-      y: input.y, x: input.x, intercept: input.intercept, names: input.names, times: input.times,
+      y: data.y, x, intercept: input.intercept, names: input.names, times,
       laggedDependent: input.laggedDependent, order: input.bgOrder, alternative,
     });
-    if (check) { dynamic = check; warnings.push(check.message, ...check.notes); }
+    if (check) {
+      dynamic = check;
+      warnings.push({ code: 'D_NOT_VALID_LAGGED_DEPENDENT', column: check.laggedDependent, how: check.how, hDefined: check.durbinH.h !== null, bgOrder: check.breuschGodfrey.order });
+      if (check.notes.length > 0) warnings.push({ code: 'LAGGED_DEPENDENT_MISMATCH', column: check.laggedDependent });
+    } else {
+      // the same Breusch-Godfrey test as for a dynamic model (src/dynamic/serial-tests.ts), next to d
+      bg = breuschGodfrey(problem.factored, residuals, input.bgOrder ?? 1, times);
+    }
   } else if (typeof input.laggedDependent === 'string') {
     throw new DwError('OPTION_CONFLICT', "Durbin's h and the Breusch-Godfrey test refit the model, so they need y, not residuals.",
       'Pass y (and the regressors) instead of the residuals.');
@@ -303,9 +376,16 @@ export function runExactDwTest(input: DwTestInput): { result: DwTestResult; prob
     nullMean: dist.mean,
     nullVariance: dist.variance,
     bounds: boundsApply && !dynamic ? boundsZone(d, n, design.k - 1, alpha, alternative, pValue, { exactPErrorBound: p.errorBound }) : null,
-    power: input.power ? powerForProblem(problem, { ...input.power, alpha, alternative, times: input.times }) : null,
+    power: input.power ? powerForProblem(problem, { ...input.power, alpha, alternative, times }) : null,
     dynamic,
     gaps,
+    timeColumn: data.timeColumn,
+    droppedRows: data.droppedRows,
+    rhoHat,
+    breuschGodfrey: bg,
+    input: input.provenance?.input ?? null,
+    options: input.provenance?.options ?? null,
+    software: { name: 'exact-dw', version: VERSION },
     warnings,
   };
   return { result, problem };
@@ -326,7 +406,7 @@ export const RESIDUAL_DRIFT_LIMIT = 1e-3;
  * const { residuals, warnings } = checkResiduals(prepareProblem(x, n), e);
  * ```
  */
-export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals: Float64Array; warnings: string[] } {
+export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals: Float64Array; warnings: DwWarning[] } {
   const drift = orthogonalityDrift(problem, e);
   if (drift > RESIDUAL_DRIFT_LIMIT) {
     throw new DwError('RESIDUALS_NOT_FROM_DESIGN',
@@ -342,9 +422,7 @@ export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals
     for (let i = 0; i < n; i++) s += q[j * n + i] * out[i];
     for (let i = 0; i < n; i++) out[i] -= s * q[j * n + i];
   }
-  const warnings = drift > 1e-8
-    ? [`The residuals were not quite orthogonal to the design (relative component ${drift.toExponential(1)} in the space of the regressors, as from rounding when they were saved); that component was removed before computing d.`]
-    : [];
+  const warnings: DwWarning[] = drift > 1e-8 ? [{ code: 'RESIDUALS_PROJECTED', drift }] : [];
   return { residuals: out, warnings };
 }
 
@@ -369,6 +447,22 @@ function timeLikeColumn(x: Float64Array, n: number, names: string[]): string | n
     if (increasing && n > 2 && maxStep > minStep) return names[j];
   }
   return null;
+}
+
+/**
+ * sum e_t e_{t-1} / sum e_t^2 over the pairs of observations one period apart (gaps honoured).
+ *
+ * @example
+ * ```ts
+ * firstOrderAutocorrelation(Float64Array.of(1, -1, 1, -1)); // -0.75
+ * ```
+ */
+export function firstOrderAutocorrelation(e: Float64Array, times?: ArrayLike<number>): number {
+  const pairs = differencePairs(e.length, 1, times);
+  let num = 0, den = 0;
+  for (let i = 0; i < pairs.from.length; i++) num += e[pairs.to[i]] * e[pairs.from[i]];
+  for (let t = 0; t < e.length; t++) den += e[t] * e[t];
+  return den > 0 ? num / den : 0;
 }
 
 /** ||Q'e|| / ||e|| for the basis Q of col(X). */

@@ -6,6 +6,7 @@
  */
 import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
 import { VERSION } from '../version.js';
+import { warningText } from './wording.js';
 import { dIsValid, savinWhiteCovers } from './citations.js';
 import { andList, bound, cite, code, dFormula, estimate, fixed, level, plain, probability, probabilityRelation, prose, sym } from './format.js';
 
@@ -500,7 +501,7 @@ export function buildReport(r: DwTestResult): ReportDocument {
   sections.push({ id: 'computation', heading: 'Computation', blocks: [{ kind: 'fields', rows: compRows }] });
 
   // 9. notes
-  if (r.warnings.length) sections.push({ id: 'notes', heading: 'Notes', blocks: [{ kind: 'list', items: r.warnings.map(prose) }] });
+  if (r.warnings.length) sections.push({ id: 'notes', heading: 'Notes', blocks: [{ kind: 'list', items: r.warnings.map(warningText) }] });
 
   // 10. cautions
   sections.push({

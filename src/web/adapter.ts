@@ -14,6 +14,21 @@ import { prepareProblem, type DwProblem } from '../inference/problem.js';
 import { renderText } from '../report/text.js';
 import { renderDensitySvg, paperParagraph, renderMarkdown } from '../report/index.js'; // REPORTS
 import { powerForProblem } from '../power/exact-power.js'; // POWER
+import { inline } from '../report/format.js';
+import { warningText } from '../report/wording.js';
+import type { DwWarning } from '../inference/warnings.js';
+
+/**
+ * A note of a result in plain words, as every report words it (src/report/wording.ts).
+ *
+ * @example
+ * ```ts
+ * warningWords({ code: 'BOUNDS_NO_INTERCEPT' }); // "The model has no intercept: ..."
+ * ```
+ */
+export function warningWords(w: DwWarning): string {
+  return inline(warningText(w), 'text');
+}
 
 /** Which optional parts this build of the page can show. */
 export const capabilities: Readonly<Record<'figure' | 'paragraph' | 'markdown' | 'power', boolean>> = {

@@ -5,8 +5,8 @@
  */
 import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
 import { INTERCEPT_NAME } from '../model/design.js';
-import { capabilities, type ReportExtras } from './adapter.js';
-import { copyText, h, placeSvg, saveText } from './dom.js';
+import { capabilities, warningWords, type ReportExtras } from './adapter.js';
+import { copyText, h, placeSvg, saveText, symbolText } from './dom.js';
 import type { OptionalPart, PlainError } from './protocol.js';
 import { atNumericalLimit, formatBound, formatLevel, formatNumber, formatProbability, formatStatistic } from './format.js';
 
@@ -286,7 +286,8 @@ export function renderResult(r: DwTestResult, extras: ReportExtras, rho: number 
   const frag = document.createDocumentFragment();
   frag.append(verdict(r));
   if (r.warnings.length > 0) {
-    frag.append(h('ul', { class: 'warnings', 'aria-label': 'Notes on this result' }, ...r.warnings.map((w) => h('li', {}, w))));
+    frag.append(h('ul', { class: 'warnings', 'aria-label': 'Notes on this result' },
+      ...r.warnings.map((w) => h('li', { 'data-code': w.code }, ...symbolText(warningWords(w))))));
   }
   const dyn = dynamicPanel(r);
   if (dyn) frag.append(dyn);

@@ -1,4 +1,6 @@
 /** `exact-dw pvalue`: exact p-values of a given d (or of the d of given residuals) for a design. */
+import { inline } from '../../report/format.js';
+import { warningText } from '../../report/wording.js';
 import { DwError } from '../../errors.js';
 import { durbinWatson } from '../../core/difference.js';
 import { numericColumn } from '../../data/csv.js';
@@ -45,7 +47,7 @@ export const pvalueCommand: Command = {
         throw new DwError('LENGTH_MISMATCH', `The residuals file has ${et.rows.length} rows but the design has ${n}.`, 'Use residuals from a fit on this same design.');
       }
       const checked = checkResiduals(problem, numericColumn(et, et.headers[0]));
-      for (const w of checked.warnings) io.err(`exact-dw: note: ${w}\n`);
+      for (const w of checked.warnings) io.err(`exact-dw: note: ${inline(warningText(w), 'text')}\n`);
       d = durbinWatson(checked.residuals, problem.pairs);
     }
     const p = pValuesFor(problem, d);
