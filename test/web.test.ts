@@ -353,12 +353,14 @@ describe('the page helpers (plain functions, no browser)', () => {
   });
 
   it('guesses the time column, y and the regressors as the command line does (every other numeric column)', () => {
-    const demo = summarizeColumns(parseCsv(demoCsv));
-    expect(guessColumns(demo)).toEqual({ time: 'year', y: 'yield_kg', x: ['spring_rain_mm', 'june_temp_c'] });
+    const demoTable = parseCsv(demoCsv);
+    const demo = summarizeColumns(demoTable);
+    expect(guessColumns(demoTable, demo)).toEqual({ time: 'year', y: 'yield_kg', x: ['spring_rain_mm', 'june_temp_c'] });
     const table = parseCsv('t,label,sales,price\n1,a,3.5,2\n2,b,3.9,2.5\n3,c,4.1,2.25\n');
     const cols = summarizeColumns(table);
     expect(cols.map((c) => [c.name, c.numeric, c.timeLike])).toEqual([['t', true, true], ['label', false, false], ['sales', true, false], ['price', true, false]]);
-    expect(guessColumns(cols)).toEqual({ time: 't', y: 'sales', x: ['price'] });
+    // 't' is not a time-like name: by the time-index rule it stays a regressor (a trend)
+    expect(guessColumns(table, cols)).toEqual({ time: null, y: 'sales', x: ['t', 'price'] });
   });
 
   it('names command-line options in library hints as the page controls, and hides internals of other errors', () => {

@@ -261,8 +261,9 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
 }
 
 /**
- * {@link exactDwTest}, also returning the prepared problem (design, operator, null distribution),
- * for callers that go on to draw the density or compute power without preparing it again.
+ * {@link exactDwTest}, also returning the prepared problem (design, operator, null distribution)
+ * and the observation times used (period numbers of the time index, after any dropped rows), for
+ * callers that go on to draw the density or compute power without preparing it again.
  *
  * @example
  * ```ts
@@ -270,7 +271,7 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
  * renderDensitySvg(result, problem.distribution);
  * ```
  */
-export function runExactDwTest(input: DwTestInput): { result: DwTestResult; problem: DwProblem } {
+export function runExactDwTest(input: DwTestInput): { result: DwTestResult; problem: DwProblem; times?: ArrayLike<number> } {
   const alternative = input.alternative ?? 'positive';
   checkAlternative(alternative);
   const alpha = input.alpha ?? 0.05;
@@ -388,7 +389,7 @@ export function runExactDwTest(input: DwTestInput): { result: DwTestResult; prob
     software: { name: 'exact-dw', version: VERSION },
     warnings,
   };
-  return { result, problem };
+  return { result, problem, times };
 }
 
 /** Residuals whose component in col(X) is larger than this (relative) are refused. */

@@ -21,6 +21,9 @@ const SYMBOLS: Record<string, Record<InlineFormat, string>> = {
   D: { text: 'D', markdown: '*D*', latex: '$D$' },
   dL: { text: 'd_L', markdown: '*d*<sub>L</sub>', latex: '$d_L$' },
   dU: { text: 'd_U', markdown: '*d*<sub>U</sub>', latex: '$d_U$' },
+  d4: { text: 'd_4', markdown: '*d*<sub>4</sub>', latex: '$d_4$' },
+  rhoHat: { text: 'rho-hat', markdown: 'ρ̂', latex: '$\\hat\\rho$' },
+  nV: { text: 'n V', markdown: '*nV*', latex: '$nV$' },
   n: { text: 'n', markdown: '*n*', latex: '$n$' },
   k: { text: 'k', markdown: '*k*', latex: '$k$' },
   kp: { text: "k'", markdown: "*k*'", latex: "$k'$" },
@@ -176,6 +179,19 @@ function token(t: string, format: InlineFormat): string {
     if (format === 'markdown') return `*d* = Σ (*e*<sub>t</sub> - *e*<sub>t-${j}</sub>)<sup>2</sup> / Σ *e*<sub>t</sub><sup>2</sup>`;
     return `d = sum (e(t) - e(t-${j}))^2 / sum e(t)^2`;
   }
+  if (t.startsWith('arformula:')) {
+    // u_t = rho u_{t-j} + eps_t: u the errors, eps the innovations (not the residuals e)
+    const j = t.slice(10);
+    if (format === 'latex') return `$u_t = \\rho\\, u_{t-${j}} + \\varepsilon_t$`;
+    if (format === 'markdown') return `*u*<sub>t</sub> = ρ *u*<sub>t-${j}</sub> + ε<sub>t</sub>`;
+    return `u(t) = rho u(t-${j}) + eps(t)`;
+  }
+  if (t.startsWith('math:')) {
+    // a short formula: LaTeX math mode as written, plain text and Markdown with the ASCII spelling
+    const [tex, plainText, md] = t.slice(5).split('|');
+    if (format === 'latex') return `$${tex}$`;
+    return format === 'markdown' ? (md ?? escapeMarkdown(plainText ?? tex)) : (plainText ?? tex);
+  }
   if (t.startsWith('code:')) {
     const body = t.slice(5);
     if (format === 'latex') return `\\texttt{${escapeLatex(body)}}`;
@@ -186,6 +202,31 @@ function token(t: string, format: InlineFormat): string {
   const s = SYMBOLS[t];
   if (!s) throw new RangeError(`report: unknown token ${t}`);
   return s[format];
+}
+
+/**
+ * The AR error process as a formula token: errors u, innovations epsilon (the residuals are e).
+ *
+ * @example
+ * ```ts
+ * inline(arFormula(1), 'latex'); // "$u_t = \\rho\\, u_{t-1} + \\varepsilon_t$"
+ * ```
+ */
+export function arFormula(step: number): string {
+  return `${OPEN}arformula:${step}${CLOSE}`;
+}
+
+/**
+ * A short formula: set in LaTeX math mode as `tex`, as `text` in plain text, and as `markdown`
+ * (already Markdown; default: `text` escaped) in Markdown. No '|' or angle quotes in any of them.
+ *
+ * @example
+ * ```ts
+ * inline(math('m = n - k', 'm = n - k'), 'latex'); // "$m = n - k$"
+ * ```
+ */
+export function math(tex: string, text: string, markdown?: string): string {
+  return `${OPEN}math:${tex}|${text}${markdown !== undefined ? `|${markdown}` : ''}${CLOSE}`;
 }
 
 /**

@@ -10,7 +10,7 @@ import { VERSION } from '../version.js';
 import { dIsValid, engineKeys, savinWhiteCovers } from './citations.js';
 import { alternativeWords, describePower, dynamicVerdict, nullWords, processFormula } from './document.js';
 import type { ProbabilityContext } from '../core/format-number.js';
-import { andList, bound, cite, fixed, inline, level, paperP, percent, plain, probabilityRelation, sym, type InlineFormat } from './format.js';
+import { andList, bound, cite, fixed, inline, level, math, paperP, percent, plain, probabilityRelation, sym, type InlineFormat } from './format.js';
 
 /** Decimals of d, critical values and bounds in the paragraph. */
 export const PARAGRAPH_D_DECIMALS = 3;
@@ -42,7 +42,7 @@ function methodPhrase(method: string): string {
   const c = cite(...engineKeys(method));
   if (method === 'pan') return `Pan's finite-range representation of its distribution function ${c}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of its characteristic function, evaluated through a log-determinant ${c}`;
-  if (method === 'saddlepoint') return `exact numerical inversion of its distribution function along a line through the saddlepoint ${c}`;
+  if (method === 'saddlepoint') return `exact numerical inversion of its distribution function along the line through the saddlepoint (the point of Daniels's saddlepoint method ${c}, used only to place the line; no saddlepoint approximation is made)`;
   return `Imhof's numerical inversion of its characteristic function ${c}`;
 }
 
@@ -52,7 +52,7 @@ function boundsPhrase(r: DwTestResult): string {
   const verdict =
     zone === 'reject-positive' ? 'would have rejected in favour of positive autocorrelation'
       : zone === 'reject-negative' ? 'would have rejected in favour of negative autocorrelation'
-        : zone === 'no-evidence' ? 'would have found no evidence of autocorrelation'
+        : zone === 'no-evidence' ? 'would not have rejected the null hypothesis of no autocorrelation'
           : 'would have been inconclusive';
   const lvl = `${percent(b.level)}${sym('percent')} level${r.alternative === 'two-sided' ? ' in each tail' : ''}`;
   const source = savinWhiteCovers(r.n, b.kPrime, b.level)
@@ -105,8 +105,8 @@ function staticParagraph(r: DwTestResult): string[] {
 
 /** The short reason h is undefined, "n V = 1.31 >= 1", from the library's longer one. */
 function undefinedWhy(reason: string): string {
-  const m = /n V = [^ ,;)]+ >= 1/.exec(reason);
-  return m ? m[0].replace(' >= ', ` ${sym('ge')} `) : `n V ${sym('ge')} 1`;
+  const m = /n V = ([^ ,;)]+) >= 1/.exec(reason);
+  return m ? math(`nV = ${m[1]} \\ge 1`, `n V = ${m[1]} >= 1`, `*nV* = ${m[1]} ≥ 1`) : math('nV \\ge 1', 'n V >= 1', '*nV* ≥ 1');
 }
 
 function dynamicParagraph(r: DwTestResult): string[] {
@@ -138,6 +138,11 @@ function dynamicParagraph(r: DwTestResult): string[] {
  */
 export function paperParagraph(r: DwTestResult, format: InlineFormat = 'text'): string {
   const sentences = dIsValid(r) ? staticParagraph(r) : dynamicParagraph(r);
-  sentences.push(`The computations used exact-dw ${VERSION}.`);
+  const bg = dIsValid(r) ? r.breuschGodfrey : null;
+  if (bg) {
+    sentences.push(`The asymptotic Breusch${sym('ndash')}Godfrey test of order ${bg.order} ${cite('breusch-1978', 'godfrey-1978')} gives LM = ${fixed(bg.lm, 2)} ` +
+      `(${sym('chi2')} ${pPhrase(bg.pChiSquare, { alpha: r.alpha })}), and the first-order autocorrelation of the residuals is ${sym('rhoHat')} = ${fixed(r.rhoHat, 2)}.`);
+  }
+  sentences.push(`The computations used exact-dw ${VERSION} ${cite('exact-dw')}.`);
   return inline(sentences.join(' '), format) + '\n';
 }

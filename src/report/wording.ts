@@ -94,3 +94,18 @@ export function nextStepsWords(): string {
     'Usual next steps: check the specification; respecify the dynamics (for example add lags of the variables); or keep the model and use ' +
     'standard errors that are robust to autocorrelation, or estimate it by feasible generalised least squares under an autocorrelated error model.';
 }
+
+/**
+ * The bounds-test sentence of src/bounds/zone.ts in the reports' wording: a test "does not
+ * reject"; it never "finds no evidence".
+ *
+ * @example
+ * ```ts
+ * boundsResolutionWords('... the bounds test finds no evidence of positive autocorrelation at 5%');
+ * // "... the bounds test does not reject no autocorrelation against positive autocorrelation at 5%"
+ * ```
+ */
+export function boundsResolutionWords(text: string): string {
+  return text.replace(/finds no evidence of autocorrelation in either direction/g, 'does not reject no autocorrelation against autocorrelation of either sign')
+    .replace(/finds no evidence of (positive|negative) autocorrelation/g, 'does not reject no autocorrelation against $1 autocorrelation');
+}
