@@ -258,7 +258,7 @@ function buildPickers(t: TableSummary): void {
     el.yChoices.append(h('label', { class: 'check' }, y, ...columnLabel(c.name, c.numeric)));
     const x = h('input', { type: 'checkbox', name: 'x', value: c.name, checked: t.guess.x.includes(c.name) });
     el.xChoices.append(h('label', { class: 'check' }, x, ...columnLabel(c.name, c.numeric)));
-    if (c.numeric) {
+    if (c.numeric || c.timeLike) {
       el.time.append(h('option', { value: c.name, selected: c.name === t.guess.time },
         c.timeLike ? c.name : `${c.name} (not increasing time labels)`));
     }
