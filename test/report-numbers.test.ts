@@ -20,7 +20,7 @@ const NUM = String.raw`-?\d+(?:\.\d+)?(?:e-?\d+)?`;
 function fromLatex(s: string): string {
   return s
     .replace(/^\\begin\{tabular\}.*$/gm, '')
-    .replace(/\$(-?[\d.]+) \\times 10\^\{(-?\d+)\}\$/g, '$1e$2')
+    .replace(/\$?(-?[\d.]+) \\times 10\^\{(-?\d+)\}\$?/g, '$1e$2')
     .replace(/\\cite\{[^}]*\}/g, '')
     .replace(/\\texttt\{([^}]*)\}/g, '$1')
     .replace(/\\textgreater\{\}/g, '>').replace(/\\textless\{\}/g, '<')

@@ -56,7 +56,7 @@ describe('content every report must carry', () => {
     const s = flat(renderText(staticResult()));
     expect(s).toMatch(/between d_L and d_U: the bounds test is inconclusive/);
     expect(s).toContain('d_L = 1.188 <= d = 1.315 <= d_U = 1.546; the exact p-value for this design, 0.039, rejects at 5%');
-    expect(flat(renderLatex(staticResult()))).toContain('$d_L$ = 1.188 $\\le$ d = 1.315 $\\le$ $d_U$ = 1.546');
+    expect(flat(renderLatex(staticResult()))).toContain('$d_L = 1.188 \\le d = 1.315 \\le d_U = 1.546$');
     const a = flat(renderText(noInterceptLag4()));
     expect(a).toMatch(/the model has no intercept, and the bounds assume one/);
     expect(a).toMatch(/differences at lag 4, and the classical bounds are for lag 1/);

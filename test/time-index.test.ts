@@ -207,6 +207,20 @@ describe('one time-index rule for the library, the command line and the page', (
     const txt = flat((await cli('test', path, '--y', 'yield', '--no-time')).out);
     expect(txt).toMatch(/looks like a time index with gaps .* its gaps are not honoured/);
   });
+  it('pvalue, critical and power follow the same rule on a design file, with a note on stderr', async () => {
+    const design = file('year,rain\n' + years.map((t, i) => `${t},${rain[i].toFixed(3)}`).join('\n') + '\n');
+    for (const cmd of [['pvalue', '--d', '1.4'], ['critical'], ['power', '--rho', '0.5']]) {
+      const auto = await cli(cmd[0], '--design', design, ...cmd.slice(1), '--format', 'json');
+      const named = await cli(cmd[0], '--design', design, '--time', 'year', ...cmd.slice(1), '--format', 'json');
+      expect(auto.status).toBe(0);
+      expect(auto.out).toBe(named.out);
+      expect(auto.err).toMatch(/note: No time column was named, so year \(whole numbers, integer\) was taken as the time index/);
+      expect(named.err).toBe('');
+      const off = await cli(cmd[0], '--design', design, '--no-time', ...cmd.slice(1), '--format', 'json');
+      expect(off.err).toMatch(/note: The regressor year looks like a time index with gaps/);
+      expect(JSON.parse(off.out).k).toBe(3);
+    }
+  });
   it('quarter labels are found by all three; a column named t stays a regressor everywhere', async () => {
     const q = 'period,sales,price\n' + ['2019Q1', '2019Q2', '2019Q4', '2020Q1', '2020Q2', '2020Q3', '2020Q4', '2021Q1', '2021Q3', '2021Q4', '2022Q1', '2022Q2']
       .map((p, i) => `${p},${(10 + Math.sin(i) + 0.1 * i).toFixed(3)},${(2 + Math.cos(2 * i)).toFixed(3)}`).join('\n') + '\n';
@@ -350,6 +364,15 @@ describe('wording a referee would flag', () => {
     expect(rej).toMatch(/misspecified model/);
     const r = exactDwTest({ y: yNot, x: { x } });
     if (r.decision !== 'reject' && r.breuschGodfrey!.pChiSquare > r.alpha) expect(flat(renderText(r))).not.toMatch(/Usual next steps/);
+  });
+  it('math in the LaTeX report sits in math mode: a relation and its number in one span', () => {
+    const r = exactDwTest({ y: yRej, x: { x } });
+    const tex = renderLatex(r);
+    expect(tex).not.toMatch(/\$ (=|\$\\le\$|\$\\ge\$) -?\d/); // no "$alpha$ = 0.05" or "$p$ $\le$ 0.05"
+    expect(tex).toMatch(/\$\\alpha = 0\.05\$/);
+    expect(tex).toMatch(/\$m = n - k\$/);
+    expect(tex).toMatch(/\$d = \d\.\d{4}\$/);
+    expect(tex).not.toMatch(/u\(t\)|e\(t\)/); // the AR formula is in math mode, not 'u(t) = rho u(t - 1) + e(t)'
   });
   it("lag 4 is named Wallis's d_4 in every format; Durbin's alternative test by its name", () => {
     const r = exactDwTest({ y: yRej, x: { x }, lag: 4 });

@@ -6,7 +6,10 @@ import { DwError } from '../errors.js';
 import { TERMINAL_STYLE, formatProbability, type ProbabilityContext } from '../core/format-number.js';
 import { createHash } from 'node:crypto';
 import { numericColumn, parseCsv, columnIndex, isTextColumn, textColumn, type DataTable } from '../data/csv.js';
-import { parseTimeLabels, TIME_FREQUENCIES, type TimeFrequency } from '../data/time-index.js';
+import { chooseTimeIndex, parseTimeLabels, TIME_FREQUENCIES, type TimeFrequency } from '../data/time-index.js';
+import type { DwWarning } from '../inference/warnings.js';
+import { inline } from '../report/format.js';
+import { warningText } from '../report/wording.js';
 import type { InputDescription } from '../inference/dw-test.js';
 import type { ProblemOptions } from '../inference/problem.js';
 import { choiceOption, integerOption, listOption, methodOption, type OptionSpecs, type OptionValues } from './args.js';
@@ -87,6 +90,33 @@ export function frequencyOption(values: OptionValues): TimeFrequency | undefined
     throw new DwError('OPTION_CONFLICT', '--frequency describes the --time column, but no --time column is named.', 'Add --time COL, or leave --frequency out.');
   }
   return choiceOption<TimeFrequency>(values, 'frequency', TIME_FREQUENCIES.filter((f) => f !== 'integer'), 'annual');
+}
+
+/**
+ * The time-index rule (src/data/time-index.ts) for commands that print no report (pvalue,
+ * critical, power, diagnose): the options with `time` set to the column the rule takes, and a note
+ * on stderr that says so, or that names a regressor whose gaps are not honoured.
+ *
+ * @example
+ * ```ts
+ * const v = applyTimeRule(processIo, table, values); // v.time === 'year' for a file with a year column
+ * ```
+ */
+export function applyTimeRule(io: CliIo, table: DataTable, values: OptionValues, y?: string): OptionValues {
+  const noTime = values['no-time'] === true;
+  if (noTime && typeof values.time === 'string') {
+    throw new DwError('OPTION_CONFLICT', '--time names a time column and --no-time asks for none.', 'Give one of them.');
+  }
+  const named = typeof values.time === 'string' ? values.time : noTime ? false : undefined;
+  if (typeof named === 'string') columnIndex(table, named);
+  const choice = chooseTimeIndex(table.headers.map((h) => ({ name: h, cells: textColumn(table, h) })), { named, y, listed: listOption(values, 'x') });
+  const note = (w: DwWarning) => io.err(`exact-dw: note: ${inline(warningText(w), 'text')}\n`);
+  if (choice.how === 'detected' && choice.column !== null) {
+    const t = parseTimeLabels(textColumn(table, choice.column), { column: choice.column, source: table.source });
+    note({ code: 'TIME_INDEX_DETECTED', column: choice.column, format: t.format, frequency: t.frequency });
+  }
+  if (choice.column === null) for (const c of choice.gapsNotHonoured) note({ code: 'TIME_GAPS_NOT_HONOURED', column: c });
+  return { ...values, time: choice.column ?? undefined };
 }
 
 /**

@@ -88,6 +88,7 @@ export function plain(s: string): string {
  */
 export function prose(s: string): string {
   return plain(s)
+    .replace(/(^|[\s(])d(?= (?:=|<=|>=|<|>) )/g, (_m, pre: string) => `${pre}${sym('d')}`)
     .replace(/\bd_L\b/g, sym('dL'))
     .replace(/\bd_U\b/g, sym('dU'))
     .replace(/ <= /g, ` ${sym('le')} `)
@@ -155,6 +156,37 @@ export function inline(s: string, format: InlineFormat): string {
     out += escapeWords(s.slice(i, a), format);
     out += token(s.slice(a + 1, b), format);
     i = b + 1;
+  }
+  return format === 'latex' ? mergeMath(out) : out;
+}
+
+const NUMBER_TEX = String.raw`-?\d+(?:\.\d+)?(?:\s\\times 10\^\{-?\d+\})?`;
+
+/**
+ * Join neighbouring LaTeX math so that a relation and its number sit in one math span:
+ * "$\alpha$ = 0.05" becomes "$\alpha = 0.05$", "$p$ $\le$ 0.05" becomes "$p \le 0.05$".
+ *
+ * @example
+ * ```ts
+ * mergeMath('$d$ = 1.2 and $p$ $\\le$ 0.05'); // "$d = 1.2$ and $p \\le 0.05$"
+ * ```
+ */
+export function mergeMath(tex: string): string {
+  const rules: [RegExp, (...m: string[]) => string][] = [
+    // a relation or a minus joins its neighbours; two symbols side by side ("chi^2 p") stay apart
+    [/\$([^$]+)\$ \$((?:\\le|\\ge|<|>|-)(?![a-zA-Z])[^$]*)\$/g, (_m, a, b) => `$${a} ${b}$`],
+    [/\$([^$]*(?:\\le|\\ge|<|>|-))\$ \$([^$]+)\$/g, (_m, a, b) => `$${a} ${b}$`],
+    [/(?<![\w.])(\d+(?:\.\d+)?) \$((?:\\le|\\ge|<|>|-) [^$]+)\$/g, (_m, a, b) => `$${a} ${b}$`],
+    [/\$-\$(\d+(?:\.\d+)?)(?!\d|\.\d)/g, (_m, a) => `$-${a}$`],
+    [/\$([^$]+)\$ = \$([^$]+)\$/g, (_m, a, b) => `$${a} = ${b}$`],
+    [new RegExp(String.raw`\$([^$]+)\$ = (${NUMBER_TEX})(?!\d|\.\d)`, 'g'), (_m, a, b) => `$${a} = ${b}$`],
+    [new RegExp(String.raw`\$([^$]*(?:\\le|\\ge|<|>|-))\$ (${NUMBER_TEX})(?!\d|\.\d)`, 'g'), (_m, a, b) => `$${a} ${b}$`],
+  ];
+  let prev = '';
+  let out = tex;
+  while (out !== prev) {
+    prev = out;
+    for (const [re, f] of rules) out = out.replace(re, f as (...args: string[]) => string);
   }
   return out;
 }

@@ -7,7 +7,7 @@ import { numericColumn } from '../../data/csv.js';
 import { prepareProblem } from '../../inference/problem.js';
 import { checkResiduals, pValuesFor } from '../../inference/dw-test.js';
 import { choiceOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, formatP, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, applyTimeRule, designColumns, formatP, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 export const pvalueCommand: Command = {
@@ -22,9 +22,10 @@ export const pvalueCommand: Command = {
     ...CSV_OPTIONS,
     ...TEXT_JSON_FORMAT,
   },
-  run({ values, io }) {
-    const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');
-    const table = loadTable(io, required(values, 'design', 'pvalue'), values);
+  run({ values: given, io }) {
+    const format = choiceOption(given, 'format', ['text', 'json'] as const, 'text');
+    const table = loadTable(io, required(given, 'design', 'pvalue'), given);
+    const values = applyTimeRule(io, table, given);
     const options = problemOptions(values, table);
     const x = designColumns(table, values);
     const n = table.rows.length;
