@@ -366,8 +366,9 @@ describe('wording a referee would flag', () => {
     if (r.decision !== 'reject' && r.breuschGodfrey!.pChiSquare > r.alpha) expect(flat(renderText(r))).not.toMatch(/Usual next steps/);
   });
   it('math in the LaTeX report sits in math mode: a relation and its number in one span', () => {
-    const r = exactDwTest({ y: yRej, x: { x } });
+    const r = exactDwTest({ y: yRej, x: { x }, power: { rho: [0.3, 0.6] } });
     const tex = renderLatex(r);
+    expect(tex).toContain('$u_t = \\rho\\, u_{t-1} + \\varepsilon_t$');
     expect(tex).not.toMatch(/\$ (=|\$\\le\$|\$\\ge\$) -?\d/); // no "$alpha$ = 0.05" or "$p$ $\le$ 0.05"
     expect(tex).toMatch(/\$\\alpha = 0\.05\$/);
     expect(tex).toMatch(/\$m = n - k\$/);
