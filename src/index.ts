@@ -17,10 +17,16 @@ export { spectrumSource, designSource, type NullSource } from './distribution/so
 export { brentRoot } from './distribution/root.js';
 export { buildDesign, factorDesign, INTERCEPT_NAME, type Design, type DesignOptions, type FactoredDesign, type RegressorInput } from './model/design.js';
 export { fitLeastSquares, type Coefficient, type LeastSquaresFit } from './model/ols.js';
-export { parseCsv, numericColumn, parseCell, type DataTable, type CsvOptions } from './data/csv.js';
+export { parseCsv, numericColumn, parseCell, isMissingCell, textColumn, type DataTable, type CsvOptions } from './data/csv.js';
+export {
+  parseTimeLabels, chooseTimeIndex, isTimeLabel, readsAsTimeIndex, looksLikeGappedIndex, TIME_FREQUENCIES, TIME_NAMES,
+  type TimeIndex, type TimeFrequency, type TimeLabelFormat, type TimeLabelOptions, type TimeRuleColumn, type TimeIndexChoice,
+} from './data/time-index.js';
+export { resolveDataInput, type ResolvedData, type DataInputFields } from './inference/data-input.js';
 export { prepareProblem, type DwProblem, type ProblemOptions } from './inference/problem.js';
 export {
-  exactDwTest, runExactDwTest, exactDwPValue, exactDwCritical, pValuesFor,
+  exactDwTest, runExactDwTest, exactDwPValue, exactDwCritical, pValuesFor, firstOrderAutocorrelation,
+  type DwWarning, type DwWarningCode, type TimeColumnInfo, type DroppedRows, type TimeLabelsInput, type InputDescription, type Provenance,
   type DwTestInput, type DwTestResult, type DwPValues, type Alternative, type BoundsZone, type PowerSummary, type DynamicModelCheck,
 } from './inference/dw-test.js';
 export * from './report/index.js';
