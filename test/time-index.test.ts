@@ -280,6 +280,8 @@ describe('rows with missing values', () => {
     const txt = flat((await cli('test', p, '--y', 'y', '--drop-missing')).out);
     expect(txt).toMatch(/2 rows with a missing value in a column of the model were dropped \(data rows 4 and 9, counted from 1 after the header\)/);
     expect(txt).toMatch(/Rows dropped \(missing values\) \.* 2: data rows 4 and 9/);
+    const para = flat((await cli('test', p, '--y', 'y', '--drop-missing', '--paragraph')).out);
+    expect(para).toMatch(/2 observations with a missing value were dropped and treated as gaps in the time index/);
   });
   it('without a time column the data-row numbers are the time index, so a dropped row is still a gap', () => {
     const y = rows.map((r) => Number(r[1]));

@@ -138,6 +138,10 @@ function dynamicParagraph(r: DwTestResult): string[] {
  */
 export function paperParagraph(r: DwTestResult, format: InlineFormat = 'text'): string {
   const sentences = dIsValid(r) ? staticParagraph(r) : dynamicParagraph(r);
+  if (r.droppedRows && r.droppedRows.count > 0) {
+    const c = r.droppedRows.count;
+    sentences.push(`${c === 1 ? 'One observation' : `${c} observations`} with a missing value ${c === 1 ? 'was' : 'were'} dropped and treated as ${c === 1 ? 'a gap' : 'gaps'} in the time index, so no difference was taken across ${c === 1 ? 'it' : 'them'}.`);
+  }
   const bg = dIsValid(r) ? r.breuschGodfrey : null;
   if (bg) {
     sentences.push(`The asymptotic Breusch${sym('ndash')}Godfrey test of order ${bg.order} ${cite('breusch-1978', 'godfrey-1978')} gives LM = ${fixed(bg.lm, 2)} ` +

@@ -205,6 +205,9 @@ export const testCommand: Command = {
     '--paragraph prints a paragraph for a paper instead; --cite adds BibTeX for the methods used;',
     '--plot writes a figure of the exact null density of d. Existing files are never replaced',
     'unless you add --force.',
+    'Without --time, a column named like a time index (year, quarter, month, date, period, ...) or',
+    'holding quarter, month or date labels is taken as the time index (the report says so);',
+    '--no-time turns this off. --drop-missing drops rows with missing values and lists them.',
   ].join('\n'),
   positionals: 1,
   options: {
