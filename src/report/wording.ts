@@ -107,5 +107,6 @@ export function nextStepsWords(): string {
  */
 export function boundsResolutionWords(text: string): string {
   return text.replace(/finds no evidence of autocorrelation in either direction/g, 'does not reject no autocorrelation against autocorrelation of either sign')
-    .replace(/finds no evidence of (positive|negative) autocorrelation/g, 'does not reject no autocorrelation against $1 autocorrelation');
+    .replace(/finds no evidence of (positive|negative) autocorrelation/g, 'does not reject no autocorrelation against $1 autocorrelation')
+    .replace(/finds no evidence\b/g, 'does not reject');
 }
