@@ -65,7 +65,7 @@ function boundsPhrase(r: DwTestResult): string {
 function staticParagraph(r: DwTestResult): string[] {
   const s: string[] = [];
   let first = `Serial correlation of the least-squares residuals of a regression with ${modelWords(r)} was examined with the Durbin${sym('ndash')}Watson statistic ${sym('d')} ${cite('durbin-watson-1950', 'durbin-watson-1951')}`;
-  if (r.lag > 1) first += r.lag === 4 ? `, formed from differences at lag 4 (Wallis's ${sym('d4')} ${cite('wallis-1972')})` : `, formed from differences at lag ${r.lag} ${cite('wallis-1972')}`;
+  if (r.lag > 1) first += r.lag === 4 ? `, formed from differences at lag 4, as in Wallis's ${sym('d4')} ${cite('wallis-1972')}` : `, formed from differences at lag ${r.lag} ${cite('wallis-1972')}`;
   if (r.gaps) first += `; as the time index has gaps, only pairs of observations exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart were differenced`;
   s.push(first + '.');
   s.push(`Its ${sym('p')}-value and critical value${r.alternative === 'two-sided' ? 's' : ''} were computed from the exact finite-sample null distribution of ${sym('d')} for this design matrix, ` +
