@@ -41,6 +41,8 @@ describe('time labels become integer periods', () => {
     expect(Array.from(t.periods)).toEqual([2001, 2002, 2004, 2007]);
     expect(t).toMatchObject({ format: 'integer', frequency: 'integer', missingPeriods: 3 });
     expect(parseTimeLabels([1, 2, 3], { frequency: 'annual' }).frequency).toBe('annual');
+    // whole numbers as spreadsheets export them
+    expect(Array.from(parseTimeLabels(['2001.0', '2002', '2.003e3']).periods)).toEqual([2001, 2002, 2003]);
   });
   it('quarters YYYYQn and YYYY-Qn: 4 year + quarter - 1, quarterly', () => {
     const a = parseTimeLabels(['2015Q3', '2015Q4', '2016Q1', '2016Q3']);

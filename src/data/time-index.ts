@@ -66,6 +66,7 @@ export interface TimeLabelOptions {
 /** Missing-value codes (as in src/data/csv.ts), compared in lower case. */
 const MISSING = ['', 'na', 'n/a', 'nan', 'null', 'none', '.', '-', '?', '#n/a', 'missing'];
 const INTEGER = /^[+-]?\d+$/;
+const DECIMAL = /^[+-]?(\d+\.\d*|\.\d+|\d+)([eE][+-]?\d+)?$/;
 const QUARTER = /^(\d{4})-?[Qq](\d+)$/;
 const MONTH = /^(\d{4})-(\d{2})$/;
 const DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
@@ -101,6 +102,8 @@ function readLabel(text: string): Label | null | 'invalid' {
     if (!Number.isSafeInteger(x)) return 'invalid';
     return { format: 'integer', year: 0, sub: 0, day: 0, value: x };
   }
+  // a whole number written as 2001.0 or 2.001e3 (as spreadsheets export them) is an integer label
+  if (DECIMAL.test(v) && Number.isSafeInteger(Number(v))) return { format: 'integer', year: 0, sub: 0, day: 0, value: Number(v) };
   let m = QUARTER.exec(v);
   if (m) {
     const q = Number(m[2]);
@@ -321,8 +324,9 @@ export function looksLikeGappedIndex(cells: ArrayLike<string | number>): boolean
   let prev = NaN;
   for (let i = 0; i < n; i++) {
     const text = String(cells[i]).trim();
-    if (!INTEGER.test(text)) return false;
+    if (!DECIMAL.test(text)) return false;
     const v = Number(text);
+    if (!Number.isSafeInteger(v)) return false;
     if (i > 0) {
       const step = v - prev;
       if (!(step > 0)) return false;

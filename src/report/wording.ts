@@ -68,7 +68,7 @@ export function warningText(w: DwWarning): string {
  *
  * @example
  * ```ts
- * inline(timeIndexWords(result.timeColumn), 'text'); // "'quarter' (quarter labels, quarterly; named), 2015Q1 to 2019Q4, 2 periods missing"
+ * inline(timeIndexWords(result.timeColumn), 'text'); // "quarter (quarter labels, quarterly; named), 2015Q1 to 2019Q4, 2 periods missing"
  * ```
  */
 export function timeIndexWords(t: TimeColumnInfo | null): string {

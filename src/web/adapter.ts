@@ -47,7 +47,7 @@ export function resolutionWords(text: string): string {
  *
  * @example
  * ```ts
- * timeIndexText(result); // "'year' (whole numbers, integer; detected by the time-index rule), 1998 to 2021, no gaps"
+ * timeIndexText(result); // "year (whole numbers, integer; detected by the time-index rule), 1998 to 2021, no gaps"
  * ```
  */
 export function timeIndexText(r: DwTestResult): string {
