@@ -310,7 +310,7 @@ describe('the offline page in headless Chromium', () => {
     await compute(page);
     expect(await page.locator('#verdict').getAttribute('class')).toMatch(/invalid/);
     expect(await page.locator('#dynamic-panel').isVisible()).toBe(true);
-    for (const f of ['p-value', 'p-positive', 'critical-lower', 'dL', 'zone']) expect(await page.locator(`[data-field="${f}"]`).count(), f).toBe(0);
+    for (const f of ['p-value', 'p-positive', 'critical-lower', 'dL', 'zone', 'null-mean']) expect(await page.locator(`[data-field="${f}"]`).count(), f).toBe(0);
     expect(await page.locator('#bounds-panel').count()).toBe(0);
     expect(await page.locator('#d-not-valid').isVisible()).toBe(true);
     expect(await page.locator('#dynamic-panel').textContent()).toMatch(/Durbin's alternative test/);

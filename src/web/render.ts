@@ -111,8 +111,11 @@ function statisticCard(r: DwTestResult): HTMLElement {
     pair('lag', String(r.lag), 'lag', r.lag === 4 ? "(Wallis's d\u2084)" : r.gaps ? '(with gaps in time)' : undefined),
     pair('time index', timeIndexText(r), 'time-index'),
     ...(r.droppedRows ? [pair('rows dropped', String(r.droppedRows.count), 'dropped-rows', `(data rows ${r.droppedRows.rows.slice(0, 20).join(', ')}${r.droppedRows.count > 20 ? ', ...' : ''})`)] : []),
-    pair('null mean of d', formatStatistic(r.nullMean), 'null-mean'),
-    pair('null standard deviation', formatStatistic(Math.sqrt(r.nullVariance)), 'null-sd'),
+    // the null moments belong to d's exact distribution, which does not hold with a lagged dependent variable
+    ...(r.dynamic ? [] : [
+      pair('null mean of d', formatStatistic(r.nullMean), 'null-mean'),
+      pair('null standard deviation', formatStatistic(Math.sqrt(r.nullVariance)), 'null-sd'),
+    ]),
   ]));
 }
 
