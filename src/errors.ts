@@ -41,6 +41,11 @@ export type DwErrorCode =
   | 'LENGTH_MISMATCH'
   | 'NO_REGRESSORS'
   | 'TIME_INVALID'
+  | 'TIME_LABEL_INVALID'
+  | 'TIME_LABEL_AMBIGUOUS'
+  | 'TIME_FORMATS_MIXED'
+  | 'TIME_IRREGULAR'
+  | 'TIME_FREQUENCY_CONFLICT'
   // numbers and options
   | 'D_OUT_OF_RANGE'
   | 'ALPHA_OUT_OF_RANGE'

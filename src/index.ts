@@ -17,10 +17,16 @@ export { spectrumSource, designSource, type NullSource } from './distribution/so
 export { brentRoot } from './distribution/root.js';
 export { buildDesign, factorDesign, INTERCEPT_NAME, type Design, type DesignOptions, type FactoredDesign, type RegressorInput } from './model/design.js';
 export { fitLeastSquares, type Coefficient, type LeastSquaresFit } from './model/ols.js';
-export { parseCsv, numericColumn, parseCell, type DataTable, type CsvOptions } from './data/csv.js';
+export { parseCsv, numericColumn, parseCell, isMissingCell, textColumn, type DataTable, type CsvOptions } from './data/csv.js';
+export {
+  parseTimeLabels, chooseTimeIndex, isTimeLabel, readsAsTimeIndex, looksLikeGappedIndex, TIME_FREQUENCIES, TIME_NAMES,
+  type TimeIndex, type TimeFrequency, type TimeLabelFormat, type TimeLabelOptions, type TimeRuleColumn, type TimeIndexChoice,
+} from './data/time-index.js';
+export { resolveDataInput, type ResolvedData, type DataInputFields } from './inference/data-input.js';
 export { prepareProblem, type DwProblem, type ProblemOptions } from './inference/problem.js';
 export {
-  exactDwTest, runExactDwTest, exactDwPValue, exactDwCritical, pValuesFor,
+  exactDwTest, runExactDwTest, exactDwPValue, exactDwCritical, pValuesFor, firstOrderAutocorrelation,
+  type DwWarning, type DwWarningCode, type TimeColumnInfo, type DroppedRows, type TimeLabelsInput, type InputDescription, type Provenance,
   type DwTestInput, type DwTestResult, type DwPValues, type Alternative, type BoundsZone, type PowerSummary, type DynamicModelCheck,
 } from './inference/dw-test.js';
 export * from './report/index.js';
@@ -54,5 +60,6 @@ export { DesignCache, SHARED_CEILING_USES } from './batch/shared-design.js';
 export { seriesAnswer, densityCeiling, CEILING_MIN_M, type SeriesAnswer } from './batch/group-test.js';
 export { renderBatch, renderBatchCsv, renderBatchMarkdown, renderBatchLatex, renderBatchJson, BATCH_FORMATS, type BatchFormat } from './batch/render.js';
 export { preparePanel, reorder, ENTITY_COLUMN_PREFIX, type PanelInput, type PanelSummary, type PreparedPanel } from './panel/panel.js';
-export { noteText, ADJUSTMENT_NAMES, type Note, type PanelNote, type BatchNote } from './report/wording.js';
+export { noteText, ADJUSTMENT_NAMES, type Note } from './report/wording.js';
+export type { PanelNote, BatchNote } from './inference/warnings.js';
 export type { DesignReuse } from './inference/dw-test.js';

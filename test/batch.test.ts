@@ -4,6 +4,7 @@
  * exact test of that group's rows (internal consistency: sharing a null distribution must not
  * change any number).
  */
+import { warningText } from '../src/report/wording.js';
 import { describe, expect, it } from 'vitest';
 import { adjustPValues } from '../src/batch/adjust.js';
 import { exactDwBatch, groupRows } from '../src/batch/batch.js';
@@ -191,7 +192,8 @@ describe('exactDwBatch', () => {
     }
     const b = exactDwBatch({ table: parseCsv(lines.join('\n') + '\n'), by: 'unit', y: 'v', x: ['vlag'], time: 't', adjust: 'bh' });
     expect(b.groups[1]).toMatchObject({ decision: 'not-valid', pValue: null, pAdjusted: null, error: null });
-    expect(b.groups[1].warnings.join(' ')).toMatch(/lagged one period/);
+    expect(b.groups[1].warnings.map((w) => w.code)).toContain('D_NOT_VALID_LAGGED_DEPENDENT');
+    expect(b.groups[1].warnings.map((w) => warningText(w)).join(' ')).toMatch(/lagged one period/);
     expect(b.summary.notValid).toBe(1);
     expect(b.notes).toContainEqual({ code: 'BATCH_NOT_VALID_EXCLUDED', excluded: 1 });
     expect(b.notes).toContainEqual({ code: 'BATCH_ADJUSTED', method: 'bh', family: 2 });

@@ -15,6 +15,7 @@ import { join } from 'node:path';
 import { cli, scratch } from './helpers/cli.js';
 import { DwError, isDwError } from '../src/errors.js';
 import { parseCsv, numericColumn } from '../src/data/csv.js';
+import { parseTimeLabels } from '../src/data/time-index.js';
 import { buildDesign, factorDesign } from '../src/model/design.js';
 import { exactDwTest, exactDwCritical, exactDwPValue } from '../src/inference/dw-test.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
@@ -175,6 +176,25 @@ const C: Entry[] = [
   { input: 'a time that is not a whole number', code: 'TIME_INVALID', words: ['2001.5', 'not a whole number'],
     argv: () => ['test', file('year,y,x\n' + lines((i) => `${YEARS[i] + 0.5},${Y[i]},${X[i]}`)), '--y', 'y', '--time', 'year'],
     lib: () => exactDwTest({ y: Y, x: { x: X }, times: YEARS.map((t) => t + 0.5) }) },
+  { input: 'a quarter label that is no quarter (2015Q5)', code: 'TIME_LABEL_INVALID', words: ["'2015Q5'", 'data row 5', "column 'quarter'", 'not a valid period'],
+    argv: () => ['test', file('quarter,y,x\n' + lines((i) => `${i === 4 ? '2015Q5' : `${2014 + Math.floor(i / 4)}Q${(i % 4) + 1}`},${Y[i]},${X[i]}`)), '--y', 'y', '--time', 'quarter'],
+    lib: () => exactDwTest({ y: Y, x: { x: X }, time: { labels: Y.map((_, i) => (i === 4 ? '2015Q5' : `${2014 + Math.floor(i / 4)}Q${(i % 4) + 1}`)), name: 'quarter' } }),
+    libWords: ["'2015Q5'", 'data row 5', "column 'quarter'"] },
+  { input: 'a date written day/month/year', code: 'TIME_LABEL_AMBIGUOUS', words: ["'01/02/2015'", 'which the month', 'ISO form'],
+    argv: () => ['test', file('date,y,x\n' + lines((i) => `${String(i + 1).padStart(2, '0')}/02/2015,${Y[i]},${X[i]}`)), '--y', 'y', '--time', 'date'],
+    lib: () => parseTimeLabels(['01/02/2015', '02/02/2015']), libWords: ["'01/02/2015'", 'ISO form'] },
+  { input: 'time labels in two formats (quarters and months)', code: 'TIME_FORMATS_MIXED', words: ['mix quarters', 'months', 'data row 7'],
+    argv: () => ['test', file('period,y,x\n' + lines((i) => `${i < 6 ? `2015Q${(i % 4) + 1}`.replace(/Q(\d)/, (_m, q) => `Q${q}`) : `2016-${String(i - 5).padStart(2, '0')}`},${Y[i]},${X[i]}`)), '--y', 'y', '--time', 'period'],
+    lib: () => parseTimeLabels(['2015Q1', '2015-04']), libWords: ['mix quarters', 'months'] },
+  { input: 'dates of no regular frequency', code: 'TIME_IRREGULAR', words: ['follow no regular frequency', 'Name the frequency'],
+    argv: () => ['test', file('date,y,x\n' + lines((i) => `2015-${String(i + 1).padStart(2, '0')}-${String(1 + ((i * 7) % 27)).padStart(2, '0')},${Y[i]},${X[i]}`)), '--y', 'y', '--time', 'date'],
+    lib: () => parseTimeLabels(['2015-01-05', '2015-02-17', '2015-04-02']) },
+  { input: 'a frequency that contradicts the labels (quarters read as monthly)', code: 'TIME_FREQUENCY_CONFLICT', words: ['quarters', 'quarterly', 'monthly'],
+    argv: () => ['test', file('quarter,y,x\n' + lines((i) => `${2014 + Math.floor(i / 4)}Q${(i % 4) + 1},${Y[i]},${X[i]}`)), '--y', 'y', '--time', 'quarter', '--frequency', 'monthly'],
+    lib: () => parseTimeLabels(['2015Q1', '2015Q2'], { frequency: 'monthly' }) },
+  { input: 'a missing value, with the option that drops such rows named on the command line', code: 'CELL_EMPTY', words: ["Missing value 'NA'", 'data row 3', '--drop-missing'],
+    argv: () => ['test', file('year,y,x\n' + lines((i) => `${YEARS[i]},${i === 2 ? 'NA' : Y[i]},${X[i]}`)), '--y', 'y'],
+    lib: () => parseTimeLabels(['2001', 'NA']), libWords: ["Missing time label 'NA'", 'data row 2'] },
   { input: 'lag 0', code: 'LAG_INVALID', words: ['--lag must be at least 1'], argv: () => ['test', good, '--y', 'y', '--lag', '0'] },
   { input: 'a lag longer than the series', code: 'LAG_INVALID', words: ['lag 40', 'no pair'],
     argv: () => ['critical', '--design', design, '--lag', '40'], lib: () => exactDwCritical({ x: { a: X }, alpha: 0.05, lag: 40 }) },

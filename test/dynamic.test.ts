@@ -385,7 +385,7 @@ describe('exact-dw diagnose and exact-dw test --lagged-dependent (CLI)', () => {
     expect(j.dynamic.laggedDependent).toBe('ylag');
     expect(j.dynamic.how).toBe('declared');
     expect(j.dynamic.breuschGodfrey.order).toBe(2);
-    expect(j.warnings.join(' ')).toMatch(/not a valid test/);
+    expect(j.warnings).toContainEqual({ code: 'D_NOT_VALID_LAGGED_DEPENDENT', column: 'ylag', how: 'declared', hDefined: j.dynamic.durbinH.h !== null, bgOrder: 2 });
     // detected without the option too
     const d = JSON.parse((await cli('test', data, '--y', 'y', '--time', 'year', '--format', 'json')).out);
     expect(d.dynamic.how).toBe('detected');

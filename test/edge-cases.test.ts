@@ -122,16 +122,23 @@ describe('an intercept in effect without a constant column', () => {
 });
 
 describe('a time index with gaps given as a regressor', () => {
-  it('is noticed: the result suggests the time column, and with it the gaps are honoured', () => {
+  it('is taken as the time index by the rule when named like one, flagged when kept as a regressor, and the gaps are honoured', () => {
     const years = [1990, 1991, 1992, 1994, 1995, 1996, 1997, 1999, 2000, 2001, 2002, 2003, 2004, 2006, 2007];
     const g = seededNormal(12);
     const y = years.map((t) => 0.1 * (t - 1990) + g());
-    const plain = exactDwTest({ y, x: { year: years } });
-    expect(plain.warnings.join(' ')).toMatch(/'year' looks like a time index with gaps/);
+    const detected = exactDwTest({ y, x: { year: years } });
+    expect(detected.timeColumn).toMatchObject({ name: 'year', how: 'detected', missingPeriods: 3 });
+    expect(detected.columns).not.toContain('year');
+    expect(detected.warnings).toContainEqual({ code: 'TIME_INDEX_DETECTED', column: 'year', format: 'integer', frequency: 'integer' });
+    expect(detected.d).toBe(exactDwTest({ y, x: {}, times: years }).d);
+    const kept = exactDwTest({ y, x: { year: years }, timeColumn: false });
+    expect(kept.warnings).toContainEqual({ code: 'TIME_GAPS_NOT_HONOURED', column: 'year' });
+    expect(kept.gaps).toBe(false);
     const timed = exactDwTest({ y, x: { trend: years.map((t) => t - 1990) }, times: years });
     expect(timed.gaps).toBe(true);
-    expect(timed.warnings.join(' ')).not.toMatch(/looks like a time index/);
+    expect(timed.warnings.map((w) => w.code)).not.toContain('TIME_GAPS_NOT_HONOURED');
     const consecutive = exactDwTest({ y, x: { t: years.map((_, i) => i) } });
-    expect(consecutive.warnings.join(' ')).not.toMatch(/looks like a time index/);
+    expect(consecutive.warnings.map((w) => w.code)).not.toContain('TIME_GAPS_NOT_HONOURED');
+    expect(consecutive.timeColumn).toBeNull(); // 't' is not a time-like name: a trend regressor
   });
 });

@@ -4,6 +4,7 @@
  * p-values by Imhof's integral in mpmath (30 digits), cross-checked by scipy.integrate.quad; the
  * tests read its committed JSON (test/ref/panel-reference.json).
  */
+import { warningText } from '../src/report/wording.js';
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { runExactDwTest, exactDwTest } from '../src/inference/dw-test.js';
@@ -46,7 +47,8 @@ describe('pooled panel (reference: numpy dense spectrum of M A M, mpmath Imhof)'
     expect(r.panel?.effectColumns).toEqual([...new Set(rows.map((x) => x.entity))].map((e) => `entity:${e}`)); // in the order of their first row
     expect(r.interceptAdded).toBe(false);
     expect(r.intercept).toBe(true); // the indicators span the constant
-    expect(r.warnings.join(' ')).toMatch(/do not apply/);
+    expect(r.warnings.map((w) => w.code)).toContain('ENTITY_EFFECTS_BOUNDS_NOT_APPLICABLE');
+    expect(r.warnings.map((w) => warningText(w)).join(' ')).toMatch(/do not apply/);
   });
 
   it('the pooled model without entity effects: no bounds zone either (several chains)', () => {

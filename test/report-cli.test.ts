@@ -58,7 +58,7 @@ describe('exact-dw test --paragraph and --cite', () => {
     const md = await cli(...base, '--paragraph', '--format', 'markdown', '--cite');
     expect(md.out).toMatch(/```bibtex\n@article\{durbin-watson-1950,/);
     const cited = [...md.out.matchAll(/\[@([^\]]+)\]/g)].flatMap((m) => m[1].split('; @'));
-    const entries = [...md.out.matchAll(/@article\{([^,]+),/g)].map((m) => m[1]);
+    const entries = [...md.out.matchAll(/@(?:article|software)\{([^,]+),/g)].map((m) => m[1]);
     expect([...new Set(cited)].sort()).toEqual([...entries].sort());
     const j = JSON.parse((await cli(...base, '--format', 'json', '--cite')).out);
     expect(j.bibtex).toMatch(/@article\{imhof-1961,/);

@@ -53,6 +53,13 @@ export function staticResult(): DwTestResult {
       rhoAtTarget: 0.6172,
     },
     dynamic: null,
+    timeColumn: null,
+    droppedRows: null,
+    rhoHat: 0.3,
+    breuschGodfrey: null,
+    input: null,
+    options: null,
+    software: { name: 'exact-dw', version: '0.1.0' },
     warnings: [],
   };
 }
@@ -88,7 +95,14 @@ export function noInterceptLag4(): DwTestResult {
     bounds: null,
     power: null,
     dynamic: null,
-    warnings: ['The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.'],
+    timeColumn: null,
+    droppedRows: null,
+    rhoHat: 0.3,
+    breuschGodfrey: null,
+    input: null,
+    options: null,
+    software: { name: 'exact-dw', version: '0.1.0' },
+    warnings: [{ code: 'BOUNDS_NO_INTERCEPT' }],
   };
 }
 
@@ -134,7 +148,14 @@ export function negativeWithGaps(): DwTestResult {
       rhoAtTarget: null,
     },
     dynamic: null,
-    warnings: ['Observation times have 2 gaps: 57 of 59 differences are used.'],
+    timeColumn: null,
+    droppedRows: null,
+    rhoHat: 0.3,
+    breuschGodfrey: null,
+    input: null,
+    options: null,
+    software: { name: 'exact-dw', version: '0.1.0' },
+    warnings: [{ code: 'BOUNDS_LAG_OR_GAPS', lag: 1, gaps: true }],
   };
 }
 

@@ -12,6 +12,8 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { PAGE_STYLE, PAPER_STYLE, REPORT_STYLE, SENTENCE_STYLE, TERMINAL_STYLE, formatProbability } from '../src/core/format-number.js';
 import { renderText } from '../src/report/text.js';
+import { renderLatex } from '../src/report/latex.js';
+import { renderMarkdown } from '../src/report/markdown.js';
 import { renderJson } from '../src/report/json.js';
 import { paperParagraph } from '../src/report/paragraph.js';
 import { citations, citedKeys, savinWhiteCovers } from '../src/report/citations.js';
@@ -107,9 +109,10 @@ describe('reports near alpha', () => {
 
 describe('the saddlepoint engine', () => {
   const r = { ...staticResult(), method: 'saddlepoint' as const };
-  it('is described in every format and the paragraph, and Daniels (1954) is cited', () => {
-    expect(flat(renderText(r))).toMatch(/exact numerical inversion of the distribution function along a line through the saddlepoint \(Daniels 1954\)/);
-    expect(flat(paperParagraph(r))).toMatch(/exact numerical inversion of its distribution function along a line through the saddlepoint \(Daniels 1954\)/);
+  it('is described in every format and the paragraph, and why Daniels (1954) is cited is said: the line, not an approximation', () => {
+    expect(flat(renderText(r))).toMatch(/exact numerical inversion of the distribution function on the eigenvalues of the design, along the vertical line through the saddlepoint; the saddlepoint is that of Daniels \(Daniels 1954\), used only to place the line/);
+    expect(flat(renderText(r))).toMatch(/not Daniels's saddlepoint approximation/);
+    expect(flat(paperParagraph(r))).toMatch(/exact numerical inversion of its distribution function along the line through the saddlepoint \(the point of Daniels's saddlepoint method \(Daniels 1954\), used only to place the line; no saddlepoint approximation is made\)/);
     expect(paperParagraph(r, 'latex')).toContain('\\cite{daniels-1954}');
     expect(paperParagraph(r, 'markdown')).toContain('[@daniels-1954]');
     expect(citedKeys(r)).toContain('daniels-1954');
@@ -177,13 +180,15 @@ describe('the power section follows the power object', () => {
     expect(t).toMatch(/Power of the two-sided test/);
     expect(t).not.toMatch(/one-sided test for positive/);
   });
-  it('seasonal process at lag 4: heading, table and formula say u(t - 4)', () => {
+  it('seasonal process at lag 4: heading, table and formula say u(t-4), innovations eps apart from the residuals e', () => {
     const base = staticResult();
     const r: DwTestResult = { ...base, lag: 4, bounds: null, power: { ...base.power!, ...{ alternative: 'positive', criticalUpper: null, process: 'seasonal', notes: [], route: 'dense' } } as DwTestResult['power'] };
     const t = flat(renderText(r));
     expect(t).toMatch(/EXACT POWER AGAINST SEASONAL AUTOREGRESSIVE ERRORS AT LAG 4/i);
-    expect(t).toMatch(/u\(t\) = rho u\(t - 4\) \+ e\(t\)/);
-    expect(flat(paperParagraph(r))).toMatch(/Against stationary seasonal errors u\(t\) = rho u\(t - 4\) \+ e\(t\)/);
+    expect(t).toMatch(/u\(t\) = rho u\(t-4\) \+ eps\(t\)/);
+    expect(flat(paperParagraph(r))).toMatch(/Against stationary seasonal errors u\(t\) = rho u\(t-4\) \+ eps\(t\)/);
+    expect(renderLatex(r)).toContain('$u_t = \\rho\\, u_{t-4} + \\varepsilon_t$');
+    expect(renderMarkdown(r)).toContain('*u*<sub>t</sub> = ρ *u*<sub>t-4</sub> + ε<sub>t</sub>');
   });
   it('negative alternative: the rejection region is d >= c', () => {
     const base = staticResult();

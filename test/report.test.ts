@@ -56,7 +56,7 @@ describe('content every report must carry', () => {
     const s = flat(renderText(staticResult()));
     expect(s).toMatch(/between d_L and d_U: the bounds test is inconclusive/);
     expect(s).toContain('d_L = 1.188 <= d = 1.315 <= d_U = 1.546; the exact p-value for this design, 0.039, rejects at 5%');
-    expect(flat(renderLatex(staticResult()))).toContain('$d_L$ = 1.188 $\\le$ d = 1.315 $\\le$ $d_U$ = 1.546');
+    expect(flat(renderLatex(staticResult()))).toContain('$d_L = 1.188 \\le d = 1.315 \\le d_U = 1.546$');
     const a = flat(renderText(noInterceptLag4()));
     expect(a).toMatch(/the model has no intercept, and the bounds assume one/);
     expect(a).toMatch(/differences at lag 4, and the classical bounds are for lag 1/);
@@ -115,17 +115,26 @@ describe('a model with a lagged dependent variable', () => {
     expect(p).not.toMatch(/exact p-value/);
     expect(p).toContain('(Durbin 1970)');
     expect(p).toContain('(Breusch 1978; Godfrey 1978)');
-    expect(citedKeys(r)).toEqual(['durbin-watson-1950', 'durbin-watson-1951', 'durbin-1970', 'breusch-1978', 'godfrey-1978']);
+    expect(citedKeys(r)).toEqual(['durbin-watson-1950', 'durbin-watson-1951', 'durbin-1970', 'breusch-1978', 'godfrey-1978', 'exact-dw']);
   });
 });
 
 describe('citations: BibTeX for the methods actually used', () => {
-  const keysOf = (bib: string) => [...bib.matchAll(/@article\{([^,]+),/g)].map((m) => m[1]);
-  it('Imhof engine with bounds: Durbin-Watson 1950, 1951, Imhof 1961, Savin-White 1977', () => {
-    expect(keysOf(citations(staticResult()))).toEqual(['durbin-watson-1950', 'durbin-watson-1951', 'imhof-1961', 'savin-white-1977']);
+  const keysOf = (bib: string) => [...bib.matchAll(/@(?:article|software)\{([^,]+),/g)].map((m) => m[1]);
+  it('Imhof engine with bounds: Durbin-Watson 1950, 1951, Imhof 1961, Savin-White 1977, and the software', () => {
+    expect(keysOf(citations(staticResult()))).toEqual(['durbin-watson-1950', 'durbin-watson-1951', 'imhof-1961', 'savin-white-1977', 'exact-dw']);
   });
   it('Pan engine at lag 4 without bounds: Pan 1968, Farebrother 1980 and Wallis 1972, no Savin-White', () => {
-    expect(keysOf(citations(noInterceptLag4()))).toEqual(['durbin-watson-1950', 'durbin-watson-1951', 'wallis-1972', 'pan-1968', 'farebrother-1980']);
+    expect(keysOf(citations(noInterceptLag4()))).toEqual(['durbin-watson-1950', 'durbin-watson-1951', 'wallis-1972', 'pan-1968', 'farebrother-1980', 'exact-dw']);
+  });
+  it('a static result with the Breusch-Godfrey test beside d cites Breusch (1978) and Godfrey (1978)', () => {
+    const r = { ...staticResult(), breuschGodfrey: { order: 4, lm: 9.5, pChiSquare: 0.0497, f: 2.6, pF: 0.07, df1: 4, df2: 17, rSquared: 0.4, n: 24 } };
+    expect(keysOf(citations(r))).toEqual(['durbin-watson-1950', 'durbin-watson-1951', 'imhof-1961', 'savin-white-1977', 'breusch-1978', 'godfrey-1978', 'exact-dw']);
+    expect(paperParagraph(r, 'text')).toContain('Breusch-Godfrey test of order 4 (Breusch 1978; Godfrey 1978) gives LM = 9.50');
+  });
+  it('the software entry is a @software entry with the version', () => {
+    const bib = citations(staticResult());
+    expect(bib).toMatch(new RegExp(`@software\\{exact-dw,\n[\\s\\S]*version = \\{${VERSION.replace(/\./g, '\\.')}\\}`));
   });
   it('entries carry the volumes and pages of the brief (from memory)', () => {
     const all = citations(staticResult()) + citations(noInterceptLag4()) + citations(dynamicResult());
@@ -145,7 +154,9 @@ describe('citations: BibTeX for the methods actually used', () => {
       let depth = 0;
       for (const ch of bib) { depth += ch === '{' ? 1 : ch === '}' ? -1 : 0; expect(depth).toBeGreaterThanOrEqual(0); }
       expect(depth).toBe(0);
-      for (const entry of bib.split(/\n(?=@)/)) expect(entry).toMatch(/^@article\{[a-z-]+\d{4},\n( {2}\w+ += \{.*\},\n)+\}\n?/);
+      for (const entry of bib.split(/\n(?=@)/)) {
+        expect(entry).toMatch(entry.startsWith('@software') ? /^@software\{exact-dw,\n( {2}\w+ += \{.*\},\n)+\}\n?/ : /^@article\{[a-z-]+\d{4},\n( {2}\w+ += \{.*\},\n)+\}\n?/);
+      }
     }
   });
   it('the cite keys in the Markdown and LaTeX paragraphs are exactly the BibTeX keys', () => {

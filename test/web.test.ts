@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { createHash } from 'node:crypto';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { build } from 'vite';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
@@ -103,11 +104,12 @@ function expectShown(text: string, value: number, finest = 5e-4): void {
 }
 
 /** The library's result as JSON (what `exact-dw test --format json` prints), for the demo data. */
-function libraryJson(input: Omit<Partial<DwTestInput>, 'x'> & { x: string[]; time?: string }): DwTestResult {
+function libraryJson(input: Omit<Partial<DwTestInput>, 'x' | 'time'> & { x: string[]; time?: string }): DwTestResult {
   const table = parseCsv(demoCsv);
   const x = Object.fromEntries(input.x.map((c) => [c, numericColumn(table, c)]));
   const times = input.time ? numericColumn(table, input.time) : undefined;
-  const result = exactDwTest({ ...input, y: numericColumn(table, 'yield_kg'), x, times });
+  const { time: _time, ...rest } = input;
+  const result = exactDwTest({ ...rest, y: numericColumn(table, 'yield_kg'), x, times });
   return JSON.parse(JSON.stringify(result)) as DwTestResult;
 }
 
@@ -268,6 +270,65 @@ describe('the offline page in headless Chromium', () => {
     await page.close();
   });
 
+  it('quarter labels: the time index chosen by the library rule, dropped rows listed, the SHA-256 of the file in the report', async () => {
+    const quarters = ['2017Q1', '2017Q2', '2017Q3', '2018Q1', '2018Q2', '2018Q3', '2018Q4', '2019Q1', '2019Q2', '2019Q4', '2020Q1', '2020Q2', '2020Q3', '2020Q4', '2021Q1', '2021Q2'];
+    const csv = 'quarter,sales,price\n' + quarters.map((q, i) => `${q},${i === 5 ? 'NA' : (10 + Math.sin(i) + 0.2 * i).toFixed(3)},${(2 + Math.cos(1.3 * i)).toFixed(3)}`).join('\n') + '\n';
+    const page = await open();
+    await page.setInputFiles('#file', { name: 'quarters.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+    await page.locator('#model-step').waitFor({ state: 'visible' });
+    const table = parseCsv(csv);
+    expect(guessColumns(table, summarizeColumns(table)).time).toBe('quarter');
+    expect(await page.locator('#time').inputValue()).toBe('quarter'); // the same choice as the command line and the API
+    await page.check('#drop-missing');
+    await page.fill('#lag', '4');
+    await compute(page);
+    expect(await page.locator('#result-error').isHidden()).toBe(true);
+    expect(await field(page, 'time-index')).toMatch(/quarter \(quarter labels, quarterly; detected by the time-index rule\), 2017Q1 to 2021Q2, 3 periods missing/);
+    expect(await field(page, 'dropped-rows')).toBe('1');
+    const lib = exactDwTest({
+      y: numericColumn(table, 'sales', { missingAsNaN: true }), x: { price: numericColumn(table, 'price') },
+      time: { labels: quarters, name: 'quarter' }, lag: 4, dropMissing: true,
+    });
+    expectShown(await field(page, 'd'), lib.d);
+    expectShown(await field(page, 'p-value'), lib.pValue);
+    const digest = createHash('sha256').update(csv).digest('hex');
+    expect(await page.locator('#text-report').textContent()).toContain(digest);
+    expect(await page.locator('ul.warnings li[data-code="ROWS_DROPPED"]').count()).toBe(1);
+    await page.close();
+  });
+
+  it('with a lagged dependent variable the page shows no p-value, critical value or bounds of d', async () => {
+    const n = 20;
+    const y: number[] = [];
+    for (let i = 0; i < n; i++) y.push(+(5 + 0.6 * (y[i - 1] ?? 5) + Math.sin(1.7 * i)).toFixed(4));
+    const csv = 'year,y,ylag,x\n' + y.slice(1).map((v, i) => `${2001 + i},${v},${y[i]},${(Math.cos(i)).toFixed(3)}`).join('\n') + '\n';
+    const page = await open();
+    await page.fill('#paste', csv);
+    await page.click('#use-paste');
+    await page.locator('#model-step').waitFor({ state: 'visible' });
+    await page.check('input[name="y"][value="y"]');
+    await compute(page);
+    expect(await page.locator('#verdict').getAttribute('class')).toMatch(/invalid/);
+    expect(await page.locator('#dynamic-panel').isVisible()).toBe(true);
+    for (const f of ['p-value', 'p-positive', 'critical-lower', 'dL', 'zone', 'null-mean']) expect(await page.locator(`[data-field="${f}"]`).count(), f).toBe(0);
+    expect(await page.locator('#bounds-panel').count()).toBe(0);
+    expect(await page.locator('#d-not-valid').isVisible()).toBe(true);
+    expect(await page.locator('#dynamic-panel').textContent()).toMatch(/Durbin's alternative test/);
+    await page.close();
+  });
+
+  it('sets d_L, d_U as subscripts and <=, >= as the signs', async () => {
+    const page = await open();
+    await loadDemo(page);
+    await compute(page);
+    const panel = page.locator('#bounds-panel');
+    expect(await panel.locator('sub').count()).toBeGreaterThanOrEqual(2);
+    const text = (await panel.textContent()) ?? '';
+    expect(text).not.toMatch(/d_L|d_U|<=|>=/);
+    expect(text).toMatch(/≤|≥/);
+    await page.close();
+  });
+
   it('works from the keyboard alone: Tab to the controls, Enter and Space to act, the results reachable', async () => {
     const page = await open();
     expect(await tabUntil(page, async () => (await activeId(page)) === 'demo')).toBe(true);
@@ -352,12 +413,14 @@ describe('the page helpers (plain functions, no browser)', () => {
   });
 
   it('guesses the time column, y and the regressors as the command line does (every other numeric column)', () => {
-    const demo = summarizeColumns(parseCsv(demoCsv));
-    expect(guessColumns(demo)).toEqual({ time: 'year', y: 'yield_kg', x: ['spring_rain_mm', 'june_temp_c'] });
+    const demoTable = parseCsv(demoCsv);
+    const demo = summarizeColumns(demoTable);
+    expect(guessColumns(demoTable, demo)).toEqual({ time: 'year', y: 'yield_kg', x: ['spring_rain_mm', 'june_temp_c'] });
     const table = parseCsv('t,label,sales,price\n1,a,3.5,2\n2,b,3.9,2.5\n3,c,4.1,2.25\n');
     const cols = summarizeColumns(table);
     expect(cols.map((c) => [c.name, c.numeric, c.timeLike])).toEqual([['t', true, true], ['label', false, false], ['sales', true, false], ['price', true, false]]);
-    expect(guessColumns(cols)).toEqual({ time: 't', y: 'sales', x: ['price'] });
+    // 't' is not a time-like name: by the time-index rule it stays a regressor (a trend)
+    expect(guessColumns(table, cols)).toEqual({ time: null, y: 'sales', x: ['t', 'price'] });
   });
 
   it('names command-line options in library hints as the page controls, and hides internals of other errors', () => {

@@ -14,7 +14,7 @@ import { runExactDwTest } from '../inference/dw-test.js';
 import { adjustPValues, ADJUSTMENTS, type Adjustment } from './adjust.js';
 import { DesignCache } from './shared-design.js';
 import { seriesAnswer } from './group-test.js';
-import type { BatchNote } from '../report/wording.js';
+import type { BatchNote, DwWarning } from '../inference/warnings.js';
 
 /** A cell of a column given to {@link exactDwBatch} as values (null, undefined, '' or NaN are missing). */
 export type BatchCell = number | string | null | undefined;
@@ -90,7 +90,7 @@ export interface BatchGroup {
   zone: string | null;
   /** Number of the distinct design this group was tested on (groups with the same number shared one null distribution). */
   design: number | null;
-  warnings: string[];
+  warnings: DwWarning[];
   /** Why the group could not be tested (null when it was). */
   error: BatchGroupError | null;
 }

@@ -20,6 +20,7 @@ import type { DesignReuse } from '../inference/dw-test.js';
 import type { TailProbability } from '../core/types.js';
 import { tailProbability, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { DwError } from '../errors.js';
+import type { DwWarning } from '../inference/warnings.js';
 
 /** Fewest residual degrees of freedom for a density ceiling (below, the density may be unbounded at the ends). */
 export const CEILING_MIN_M = 8;
@@ -58,7 +59,7 @@ export interface SeriesAnswer {
   errorBound: number;
   method: string;
   decision: 'reject' | 'not-rejected';
-  warnings: string[];
+  warnings: DwWarning[];
 }
 
 /**

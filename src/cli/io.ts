@@ -12,6 +12,8 @@ export interface CliIo {
   out(text: string): void;
   err(text: string): void;
   readText(path: string): string;
+  /** The raw bytes of a file (for its SHA-256); the text was read by readText first. */
+  readBytes?(path: string): Uint8Array;
   /** Write a new file; refuses to replace an existing one unless `force`. */
   writeText(path: string, text: string, force: boolean): void;
   exists(path: string): boolean;
@@ -24,6 +26,7 @@ export const processIo: CliIo = {
   out: (t) => { process.stdout.write(t); },
   err: (t) => { process.stderr.write(t); },
   readText,
+  readBytes: (p) => readFileSync(p),
   writeText,
   exists: (p) => existsSync(p),
   errIsTerminal: process.stderr.isTTY === true,

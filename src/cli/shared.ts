@@ -4,7 +4,13 @@
  */
 import { DwError } from '../errors.js';
 import { TERMINAL_STYLE, formatProbability, type ProbabilityContext } from '../core/format-number.js';
-import { numericColumn, parseCsv, columnIndex, isTextColumn, type CsvOptions, type DataTable } from '../data/csv.js';
+import { createHash } from 'node:crypto';
+import { numericColumn, parseCsv, columnIndex, isTextColumn, textColumn, type CsvOptions, type DataTable } from '../data/csv.js';
+import { chooseTimeIndex, parseTimeLabels, TIME_FREQUENCIES, type TimeFrequency } from '../data/time-index.js';
+import type { DwWarning } from '../inference/warnings.js';
+import { inline } from '../report/format.js';
+import { warningText } from '../report/wording.js';
+import type { InputDescription } from '../inference/dw-test.js';
 import type { ProblemOptions } from '../inference/problem.js';
 import { choiceOption, integerOption, listOption, methodOption, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliIo } from './io.js';
@@ -29,7 +35,9 @@ export const TEXT_JSON_FORMAT: OptionSpecs = {
 export const MODEL_OPTIONS: OptionSpecs = {
   'no-intercept': { type: 'boolean', help: 'do not add an intercept (a constant column you supply still counts as one)' },
   lag: { type: 'string', value: 'J', help: 'difference at lag J (default 1; 4 for quarterly data, Wallis 1972)' },
-  time: { type: 'string', value: 'COL', help: 'integer time column (years, quarter numbers); not a regressor; gaps are honoured' },
+  time: { type: 'string', value: 'COL', help: 'time column: integers, quarters (2015Q1, 2015-Q1), months (2015-01) or ISO dates; not a regressor; gaps are honoured' },
+  'no-time': { type: 'boolean', help: 'no time index: do not take a time-like column as the time index (the rows are consecutive)' },
+  frequency: { type: 'string', value: 'F', help: 'frequency of the --time dates: annual, quarterly, monthly, weekly or daily (inferred when omitted)' },
   method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan, eigenfree or saddlepoint' },
 };
 
@@ -55,6 +63,63 @@ export function loadTable(io: CliIo, path: string, values: OptionValues): DataTa
 }
 
 /**
+ * The file name, size and SHA-256 of a data file, for the reproducibility record of a result.
+ *
+ * @example
+ * ```ts
+ * describeInput(processIo, 'sales.csv'); // { name: 'sales.csv', sha256: '9f86d0...', bytes: 1234 }
+ * ```
+ */
+export function describeInput(io: CliIo, path: string): InputDescription {
+  if (!io.readBytes) return { name: path };
+  const bytes = io.readBytes(path);
+  return { name: path, sha256: createHash('sha256').update(bytes).digest('hex'), bytes: bytes.length };
+}
+
+/**
+ * --frequency, checked.
+ *
+ * @example
+ * ```ts
+ * frequencyOption({ frequency: 'quarterly' }); // 'quarterly'
+ * ```
+ */
+export function frequencyOption(values: OptionValues): TimeFrequency | undefined {
+  if (values.frequency === undefined) return undefined;
+  if (typeof values.time !== 'string') {
+    throw new DwError('OPTION_CONFLICT', '--frequency describes the --time column, but no --time column is named.', 'Add --time COL, or leave --frequency out.');
+  }
+  return choiceOption<TimeFrequency>(values, 'frequency', TIME_FREQUENCIES.filter((f) => f !== 'integer'), 'annual');
+}
+
+/**
+ * The time-index rule (src/data/time-index.ts) for commands that print no report (pvalue,
+ * critical, power, diagnose): the options with `time` set to the column the rule takes, and a note
+ * on stderr that says so, or that names a regressor whose gaps are not honoured.
+ *
+ * @example
+ * ```ts
+ * const v = applyTimeRule(processIo, table, values); // v.time === 'year' for a file with a year column
+ * ```
+ */
+export function applyTimeRule(io: CliIo, table: DataTable, values: OptionValues, y?: string): OptionValues {
+  const noTime = values['no-time'] === true;
+  if (noTime && typeof values.time === 'string') {
+    throw new DwError('OPTION_CONFLICT', '--time names a time column and --no-time asks for none.', 'Give one of them.');
+  }
+  const named = typeof values.time === 'string' ? values.time : noTime ? false : undefined;
+  if (typeof named === 'string') columnIndex(table, named);
+  const choice = chooseTimeIndex(table.headers.map((h) => ({ name: h, cells: textColumn(table, h) })), { named, y, listed: listOption(values, 'x') });
+  const note = (w: DwWarning) => io.err(`exact-dw: note: ${inline(warningText(w), 'text')}\n`);
+  if (choice.how === 'detected' && choice.column !== null) {
+    const t = parseTimeLabels(textColumn(table, choice.column), { column: choice.column, source: table.source });
+    note({ code: 'TIME_INDEX_DETECTED', column: choice.column, format: t.format, frequency: t.frequency });
+  }
+  if (choice.column === null) for (const c of choice.gapsNotHonoured) note({ code: 'TIME_GAPS_NOT_HONOURED', column: c });
+  return { ...values, time: choice.column ?? undefined };
+}
+
+/**
  * Problem options (intercept, lag, times, engine) from the command line and the table.
  *
  * @example
@@ -72,14 +137,14 @@ export function problemOptions(values: OptionValues, table?: DataTable): Problem
   let times: Float64Array | undefined;
   if (typeof timeCol === 'string') {
     if (!table) throw new DwError('OPTION_CONFLICT', '--time needs a data file with a time column.', 'Give the file that holds it.');
-    times = timeColumn(table, timeCol);
+    times = timeColumn(table, timeCol, frequencyOption(values));
   }
   return { intercept: !values['no-intercept'], lag, times, method: methodOption(values) };
 }
 
 /**
- * The time column, checked where it enters: whole numbers (exactly representable), strictly
- * increasing, so that errors name the file, the data row and the column.
+ * The time column as period numbers (src/data/time-index.ts: integers, quarters, months, ISO
+ * dates), checked where it enters, so that errors name the file, the data row and the column.
  *
  * @example
  * ```ts
@@ -87,25 +152,9 @@ export function problemOptions(values: OptionValues, table?: DataTable): Problem
  * timeColumn(table, 'year'); // Float64Array [2001, 2002, 2004] (a gap at 2003 is allowed)
  * ```
  */
-export function timeColumn(table: DataTable, column: string): Float64Array {
-  const t = numericColumn(table, column);
-  const where = (i: number) => `data row ${i + 1}, column '${column}' of ${table.source}`;
-  for (let i = 0; i < t.length; i++) {
-    const detail = { file: table.source, row: i + 1, column, value: String(t[i]) };
-    if (!Number.isSafeInteger(t[i])) {
-      throw new DwError('TIME_INVALID', `The time ${table.rows[i][table.headers.indexOf(column)].trim()} at ${where(i)} is not a whole number${Number.isInteger(t[i]) ? ' that can be represented exactly' : ''}.`,
-        'The time column must hold integers such as years or quarter numbers (e.g. 2001Q3 as 4 * 2001 + 3).', detail);
-    }
-    if (i > 0 && t[i] === t[i - 1]) {
-      throw new DwError('TIME_INVALID', `The time ${t[i]} appears twice, at data rows ${i} and ${i + 1} of column '${column}' of ${table.source}.`,
-        'Each period may appear once: remove or merge the duplicated row.', detail);
-    }
-    if (i > 0 && t[i] < t[i - 1]) {
-      throw new DwError('TIME_INVALID', `The times decrease at ${where(i)}: ${t[i]} comes after ${t[i - 1]}.`,
-        'Sort the rows by time (oldest first).', detail);
-    }
-  }
-  return t;
+export function timeColumn(table: DataTable, column: string, frequency?: TimeFrequency): Float64Array {
+  columnIndex(table, column);
+  return parseTimeLabels(textColumn(table, column), { column, source: table.source, frequency }).periods;
 }
 
 /**
@@ -136,7 +185,7 @@ export function designColumns(table: DataTable, values: OptionValues, exclude: s
  * Object.keys(chooseRegressors(table, { time: 'year' }, 'sales')); // ['price']
  * ```
  */
-export function chooseRegressors(table: DataTable, values: OptionValues, yName: string): Record<string, Float64Array> {
+export function chooseRegressors(table: DataTable, values: OptionValues, yName: string, missingAsNaN = false): Record<string, Float64Array> {
   const listed = listOption(values, 'x');
   const time = typeof values.time === 'string' ? values.time : undefined;
   if (time !== undefined && time === yName) {
@@ -148,7 +197,7 @@ export function chooseRegressors(table: DataTable, values: OptionValues, yName: 
       if (name === yName) throw new DwError('OPTION_CONFLICT', `'${name}' is both --y and a regressor in --x.`, 'Remove it from --x.', { column: name });
       if (name === time) throw new DwError('OPTION_CONFLICT', `'${name}' is the time column and cannot also be a regressor.`, 'Remove it from --x, or add a trend column of your own.', { column: name });
       if (name in out) throw new DwError('COLUMN_REPEATED', `'${name}' is listed twice in --x.`, 'List each regressor once.', { column: name });
-      out[name] = numericColumn(table, name);
+      out[name] = numericColumn(table, name, { missingAsNaN });
     }
     return out;
   }
@@ -156,7 +205,7 @@ export function chooseRegressors(table: DataTable, values: OptionValues, yName: 
     if (h === yName || h === time) continue;
     if (isTextColumn(table, h)) continue; // a label column is not a regressor by default
     try {
-      out[h] = numericColumn(table, h);
+      out[h] = numericColumn(table, h, { missingAsNaN });
     } catch (err) {
       if (!(err instanceof DwError)) throw err;
       throw new DwError(err.code, err.message,

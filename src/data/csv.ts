@@ -208,7 +208,7 @@ export function parseCell(table: DataTable, row: number, column: string, text: s
   const detail = { file: table.source, row: row + 1, column, value: v };
   if (MISSING.has(v.toLowerCase())) {
     throw new DwError('CELL_EMPTY', `Missing value ${v === '' ? `(${text === '' ? 'empty' : 'blank'} cell)` : `'${v}'`} at ${where}.`,
-      'The exact test needs a complete series: fill the value or remove the row (and declare the gap with --time).', detail);
+      'The exact test needs a complete series: fill the value, or drop the rows with missing values (they become gaps in the time index).', detail);
   }
   if (/^[+-]?(inf|infinity|∞)$/i.test(v)) {
     throw new DwError('CELL_NOT_FINITE', `Infinite value '${v}' at ${where}.`, 'Every value must be a finite number.', detail);
@@ -258,9 +258,36 @@ function notNumberHint(table: DataTable, v: string): string {
  * numericColumn(table, 'Y'); // throws COLUMN_UNKNOWN: Did you mean 'y'?
  * ```
  */
-export function numericColumn(table: DataTable, column: string): Float64Array {
+export function numericColumn(table: DataTable, column: string, options: { missingAsNaN?: boolean } = {}): Float64Array {
   const j = columnIndex(table, column);
-  return Float64Array.from(table.rows, (r, i) => parseCell(table, i, column, r[j]));
+  return Float64Array.from(table.rows, (r, i) => (options.missingAsNaN && isMissingCell(r[j]) ? NaN : parseCell(table, i, column, r[j])));
+}
+
+/**
+ * True for a cell read as a missing value: empty, spaces only, or one of the codes NA, N/A, NaN,
+ * null, none, missing, `.`, `-`, `?`, `#N/A` (any case).
+ *
+ * @example
+ * ```ts
+ * isMissingCell(' NA '); // true
+ * isMissingCell('0');    // false
+ * ```
+ */
+export function isMissingCell(text: string): boolean {
+  return MISSING.has(text.trim().toLowerCase());
+}
+
+/**
+ * The cells of a column as text (trimmed), e.g. time labels.
+ *
+ * @example
+ * ```ts
+ * textColumn(parseCsv('q,y\n2015Q1,1\n2015Q2,2\n'), 'q'); // ['2015Q1', '2015Q2']
+ * ```
+ */
+export function textColumn(table: DataTable, column: string): string[] {
+  const j = columnIndex(table, column);
+  return table.rows.map((r) => r[j].trim());
 }
 
 /**

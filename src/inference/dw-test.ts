@@ -4,7 +4,7 @@
  * the exact critical values at alpha, and the decision.
  */
 import { DwError } from '../errors.js';
-import { durbinWatson } from '../core/difference.js';
+import { durbinWatson, differencePairs } from '../core/difference.js';
 import type { EngineName, MethodChoice } from '../core/types.js';
 import { fitLeastSquares, type Coefficient } from '../model/ols.js';
 import { designErrorAllowance, rowCount, type RegressorInput } from '../model/design.js';
@@ -18,7 +18,32 @@ import { MAX_BOUNDS_N } from '../bounds/spectra.js';
 import { powerForProblem } from '../power/exact-power.js';
 import type { ErrorProcess } from '../power/weights.js';
 import { preparePanel, reorder, type PanelInput, type PanelSummary } from '../panel/panel.js';
-import { noteText, type PanelNote } from '../report/wording.js';
+import type { PanelNote } from './warnings.js';
+import { breuschGodfrey, type BreuschGodfrey } from '../dynamic/serial-tests.js';
+import { VERSION } from '../version.js';
+import type { TimeFrequency } from '../data/time-index.js';
+import { resolveDataInput, type DroppedRows, type TimeColumnInfo, type TimeLabelsInput } from './data-input.js';
+import type { DwWarning } from './warnings.js';
+
+export type { DwWarning, DwWarningCode } from './warnings.js';
+export type { DroppedRows, TimeColumnInfo, TimeLabelsInput } from './data-input.js';
+
+/** Where the data came from, as the caller describes it (the library reads no file). */
+export interface InputDescription {
+  /** File name (or a description such as "pasted text"). */
+  name: string;
+  /** SHA-256 of the bytes read, in lower-case hexadecimal. */
+  sha256?: string;
+  /** Size in bytes. */
+  bytes?: number;
+}
+
+/** Reproducibility record of a result: the input, the options used and the software. */
+export interface Provenance {
+  input?: InputDescription;
+  /** The options of the run as the caller gave them (e.g. the command-line options). */
+  options?: Record<string, string | number | boolean | string[]>;
+}
 
 /** The alternative hypothesis: positive or negative first-order autocorrelation, or either. */
 export type { Alternative } from '../core/alternative.js';
@@ -41,8 +66,30 @@ export interface DwTestInput extends ProblemOptions {
    * and the Breusch-Godfrey test). Detected from the data when omitted; `false` turns detection off.
    */
   laggedDependent?: string | false;
-  /** Order of the Breusch-Godfrey test reported when the model is dynamic (default 1). */
+  /**
+   * Order p of the Breusch-Godfrey test (default 1; 4 is usual for quarterly data), reported next
+   * to d for a static model and in place of d for a dynamic one.
+   */
   bgOrder?: number;
+  /**
+   * Time labels (integers, 2015Q1 or 2015-Q1, 2015-01, 2015-01-31) instead of `times`; parsed by
+   * {@link parseTimeLabels}, the frequency inferred and reported.
+   */
+  time?: TimeLabelsInput;
+  /**
+   * The column of `x` (named columns) that is the time index, taken out of the regressors; when
+   * omitted the time-index rule may pick one (see README); `false` turns the rule off.
+   */
+  timeColumn?: string | false;
+  /** Frequency of the time index instead of the inferred one. */
+  frequency?: TimeFrequency;
+  /**
+   * Drop the rows with a missing value (NaN, null) in y, a regressor or the time index; they are
+   * listed in `droppedRows` and become gaps. Without it such values are refused.
+   */
+  dropMissing?: boolean;
+  /** Input file and options, copied into the result for reproducibility. */
+  provenance?: Provenance;
   /** Exact power of this test against AR(1) errors at these rho (and the rho reaching `target`, default 0.8). */
   power?: { rho: ArrayLike<number>; target?: number; process?: ErrorProcess };
   /**
@@ -125,7 +172,26 @@ export interface DwTestResult extends DwPValues {
   gaps: boolean;
   /** The pooled panel design, when the input was a panel (absent otherwise). */
   panel?: PanelSummary & { notes: PanelNote[] };
-  warnings: string[];
+  /** The time index used (null: the rows are consecutive periods). */
+  timeColumn: TimeColumnInfo | null;
+  /** Rows dropped for missing values (null when none were). */
+  droppedRows: DroppedRows | null;
+  /**
+   * First-order autocorrelation of the residuals, sum e_t e_{t-1} / sum e_t^2 over the pairs one
+   * period apart (gaps honoured); 1 - d/2 approximates it at lag 1 (common practice).
+   */
+  rhoHat: number;
+  /**
+   * Breusch-Godfrey LM test of order p (asymptotic) for a static model with y given; for a dynamic
+   * model it is in `dynamic`, and null here.
+   */
+  breuschGodfrey: BreuschGodfrey | null;
+  /** The input and options (as described by the caller) and the software version. */
+  input: InputDescription | null;
+  options: Provenance['options'] | null;
+  software: { name: 'exact-dw'; version: string };
+  /** Notes on the result as typed codes; the words are in src/report/wording.ts. */
+  warnings: DwWarning[];
 }
 
 export { checkAlpha } from '../core/alternative.js';
@@ -214,8 +280,9 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
 }
 
 /**
- * {@link exactDwTest}, also returning the prepared problem (design, operator, null distribution),
- * for callers that go on to draw the density or compute power without preparing it again.
+ * {@link exactDwTest}, also returning the prepared problem (design, operator, null distribution)
+ * and the observation times used (period numbers of the time index, after any dropped rows), for
+ * callers that go on to draw the density or compute power without preparing it again.
  *
  * @example
  * ```ts
@@ -223,7 +290,7 @@ export function exactDwTest(input: DwTestInput): DwTestResult {
  * renderDensitySvg(result, problem.distribution);
  * ```
  */
-export function runExactDwTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTestResult; problem: DwProblem } {
+export function runExactDwTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTestResult; problem: DwProblem; times?: ArrayLike<number> } {
   if (input.panel !== undefined) return runPanelTest(input, reuse);
   return runSeries(input, reuse, false);
 }
@@ -232,9 +299,9 @@ export function runExactDwTest(input: DwTestInput, reuse?: DesignReuse): { resul
  * The pooled panel test: rows ordered entity by entity, times on one axis with a gap of more than
  * the lag between entities (src/panel/panel.ts), then the ordinary test on that design.
  */
-function runPanelTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTestResult; problem: DwProblem } {
+function runPanelTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTestResult; problem: DwProblem; times?: ArrayLike<number> } {
   const panel = input.panel!;
-  if (input.times !== undefined) {
+  if (input.times !== undefined || input.time !== undefined) {
     throw new DwError('OPTION_CONFLICT', 'A panel brings its own times; separate observation times cannot be given as well.', 'Give the time of each row with the panel only.');
   }
   if (input.power !== undefined) {
@@ -244,13 +311,19 @@ function runPanelTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTest
   if ((input.y === undefined) === (input.residuals === undefined)) {
     throw new DwError('OPTION_CONFLICT', 'Give exactly one of y and residuals.', 'Pass y to fit the regression here, or the residuals of your own fit.');
   }
+  if (input.dropMissing === true) {
+    throw new DwError('OPTION_CONFLICT', 'Dropping rows with missing values is not available for a pooled panel: it needs every row of every entity.',
+      'Remove the rows with missing values before the test, or test the entities one by one as a batch.');
+  }
   const series = (input.y ?? input.residuals) as ArrayLike<number>;
   const n = series.length;
   const prepared = preparePanel(panel, input.x, n, input.lag ?? 1, input.intercept ?? true, input.names);
   const ordered = reorder(series, prepared.order);
-  const { result, problem } = runSeries({
+  const { result, problem, times } = runSeries({
     ...input,
     panel: undefined,
+    time: undefined,
+    timeColumn: false,
     x: prepared.x,
     names: undefined,
     intercept: prepared.intercept,
@@ -263,11 +336,11 @@ function runPanelTest(input: DwTestInput, reuse?: DesignReuse): { result: DwTest
   else if (result.bounds === null && prepared.summary.entities > 1) notes.push({ code: 'PANEL_BOUNDS_NOT_APPLICABLE', entities: prepared.summary.entities });
   if (prepared.summary.entityEffects && prepared.summary.entities > 1) result.bounds = null;
   result.panel = { ...prepared.summary, pairs: problem.pairs.from.length, notes };
-  result.warnings.push(...notes.map(noteText));
-  return { result, problem };
+  result.warnings.push(...notes);
+  return { result, problem, times };
 }
 
-function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode: boolean): { result: DwTestResult; problem: DwProblem } {
+function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode: boolean): { result: DwTestResult; problem: DwProblem; times?: ArrayLike<number> } {
   const alternative = input.alternative ?? 'positive';
   checkAlternative(alternative);
   const alpha = input.alpha ?? 0.05;
@@ -275,30 +348,33 @@ function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode
   if ((input.y === undefined) === (input.residuals === undefined)) {
     throw new DwError('OPTION_CONFLICT', 'Give exactly one of y and residuals.', 'Pass y to fit the regression here, or the residuals of your own fit.');
   }
-  const series = (input.y ?? input.residuals) as ArrayLike<number>;
+  const data = resolveDataInput(input);
+  const x = data.x;
+  const times = data.times;
+  const series = (data.y ?? data.residuals) as ArrayLike<number>;
   const n = series.length;
-  const problem = reuse?.problem ?? prepareProblem(input.x, n, input);
+  const problem = reuse?.problem ?? prepareProblem(x, n, { ...input, times });
   const { design } = problem.factored;
-  const warnings = [...problem.warnings];
+  const warnings: DwWarning[] = [...data.warnings, ...problem.warnings];
   let residuals: Float64Array;
   let coefficients: Coefficient[] | null = null;
   let rSquared: number | null = null;
   // how far rounding in X and y can move d itself (measured bound, src/model/design.ts)
   let dAllowance = 0;
-  if (input.y !== undefined) {
-    const fit = fitLeastSquares(problem.factored, input.y);
+  if (data.y !== undefined) {
+    const fit = fitLeastSquares(problem.factored, data.y);
     residuals = fit.residuals;
     coefficients = fit.coefficients;
     rSquared = fit.rSquared;
     dAllowance = designErrorAllowance(problem.factored.condition, fit.amplification);
   } else {
-    const raw = input.residuals as ArrayLike<unknown>;
+    const raw = data.residuals as ArrayLike<unknown>;
     for (let i = 0; i < n; i++) {
       if (typeof raw[i] !== 'number') {
         throw new DwError('CELL_NOT_NUMERIC', `Residual ${i + 1} is ${String(raw[i])}, not a number.`, 'Every residual must be a finite number.', { row: i + 1 });
       }
     }
-    residuals = Float64Array.from(input.residuals as ArrayLike<number>);
+    residuals = Float64Array.from(data.residuals as ArrayLike<number>);
     for (let i = 0; i < n; i++) {
       if (!Number.isFinite(residuals[i])) {
         throw new DwError('CELL_NOT_FINITE', `Residual ${i + 1} is ${residuals[i]}.`, 'Every residual must be a finite number.', { row: i + 1 });
@@ -323,27 +399,33 @@ function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode
   const dist = problem.distribution;
   const critical = { lower: dist.quantile(tailLevel), upper: dist.upperQuantile(tailLevel), tailLevel };
   const interceptInEffect = problem.factored.spansConstant;
-  if (input.times === undefined) {
+  if (Array.isArray(x)) {
+    // rows carry no column names for the rule; still flag a gapped-looking column
     const index = timeLikeColumn(design.x, design.n, design.names);
-    if (index) {
-      warnings.push(`The regressor '${index}' looks like a time index with gaps (increasing whole numbers that skip some values); if it is one, give it as the time column (--time ${index}) so that d is taken only between observations exactly one period apart.`);
-    }
+    if (index && times === undefined) warnings.push({ code: 'TIME_GAPS_NOT_HONOURED', column: index });
   }
-  if (!interceptInEffect) {
-    warnings.push('The model has no intercept: the classical bounds tables (d_L, d_U) do not apply; the exact p-value does.');
-  }
+  if (!interceptInEffect) warnings.push({ code: 'BOUNDS_NO_INTERCEPT' });
   const gaps = problem.pairs.from.length < n - problem.pairs.lag;
-  if ((problem.pairs.lag > 1 || gaps) && !panelMode) {
-    warnings.push(`The classical bounds tables (d_L, d_U) are for lag 1 and consecutive observations; ${problem.pairs.lag > 1 ? `at lag ${problem.pairs.lag}` : 'with gaps in time'} they do not apply; the exact p-value does.`);
-  }
+  if ((problem.pairs.lag > 1 || gaps) && !panelMode) warnings.push({ code: 'BOUNDS_LAG_OR_GAPS', lag: problem.pairs.lag, gaps });
+  const rhoHat = firstOrderAutocorrelation(residuals, times);
   let dynamic: DynamicModelCheck | null = null;
-  // detection alone is cheap and the check refits the model: look first (same answer either way)
-  if (input.y !== undefined && (input.laggedDependent !== undefined || laggedDependentPresent(input.y, problem, input.times))) {
-    const check = dynamicModelCheck({
-      y: input.y, x: input.x, intercept: input.intercept, names: input.names, times: input.times,
-      laggedDependent: input.laggedDependent, order: input.bgOrder, alternative,
-    });
-    if (check) { dynamic = check; warnings.push(check.message, ...check.notes); }
+  let bg: BreuschGodfrey | null = null;
+  if (data.y !== undefined) {
+    // detection alone is cheap and the check refits the model: look first (same answer either way)
+    const check = input.laggedDependent !== undefined || laggedDependentPresent(data.y, problem, times)
+      ? dynamicModelCheck({
+        y: data.y, x, intercept: input.intercept, names: input.names, times,
+        laggedDependent: input.laggedDependent, order: input.bgOrder, alternative,
+      })
+      : null;
+    if (check) {
+      dynamic = check;
+      warnings.push({ code: 'D_NOT_VALID_LAGGED_DEPENDENT', column: check.laggedDependent, how: check.how, hDefined: check.durbinH.h !== null, bgOrder: check.breuschGodfrey.order });
+      if (check.notes.length > 0) warnings.push({ code: 'LAGGED_DEPENDENT_MISMATCH', column: check.laggedDependent });
+    } else {
+      // the same Breusch-Godfrey test as for a dynamic model (src/dynamic/serial-tests.ts), next to d
+      bg = breuschGodfrey(problem.factored, residuals, input.bgOrder ?? 1, times);
+    }
   } else if (typeof input.laggedDependent === 'string') {
     throw new DwError('OPTION_CONFLICT', "Durbin's h and the Breusch-Godfrey test refit the model, so they need y, not residuals.",
       'Pass y (and the regressors) instead of the residuals.');
@@ -370,12 +452,19 @@ function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode
       exactPErrorBound: p.errorBound,
       known: reuse?.bounds?.(n, design.k - 1, alternative === 'two-sided' ? alpha / 2 : alpha),
     }) : null,
-    power: input.power ? powerForProblem(problem, { ...input.power, alpha, alternative, times: input.times }) : null,
+    power: input.power ? powerForProblem(problem, { ...input.power, alpha, alternative, times }) : null,
     dynamic,
     gaps,
+    timeColumn: data.timeColumn,
+    droppedRows: data.droppedRows,
+    rhoHat,
+    breuschGodfrey: bg,
+    input: input.provenance?.input ?? null,
+    options: input.provenance?.options ?? null,
+    software: { name: 'exact-dw', version: VERSION },
     warnings,
   };
-  return { result, problem };
+  return { result, problem, times };
 }
 
 /** Whether a regressor of the prepared design is y lagged one period (the detection of src/dynamic/lagged-dependent.ts). */
@@ -401,7 +490,7 @@ export const RESIDUAL_DRIFT_LIMIT = 1e-3;
  * const { residuals, warnings } = checkResiduals(prepareProblem(x, n), e);
  * ```
  */
-export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals: Float64Array; warnings: string[] } {
+export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals: Float64Array; warnings: DwWarning[] } {
   const drift = orthogonalityDrift(problem, e);
   if (drift > RESIDUAL_DRIFT_LIMIT) {
     throw new DwError('RESIDUALS_NOT_FROM_DESIGN',
@@ -417,9 +506,7 @@ export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals
     for (let i = 0; i < n; i++) s += q[j * n + i] * out[i];
     for (let i = 0; i < n; i++) out[i] -= s * q[j * n + i];
   }
-  const warnings = drift > 1e-8
-    ? [`The residuals were not quite orthogonal to the design (relative component ${drift.toExponential(1)} in the space of the regressors, as from rounding when they were saved); that component was removed before computing d.`]
-    : [];
+  const warnings: DwWarning[] = drift > 1e-8 ? [{ code: 'RESIDUALS_PROJECTED', drift }] : [];
   return { residuals: out, warnings };
 }
 
@@ -444,6 +531,22 @@ function timeLikeColumn(x: Float64Array, n: number, names: string[]): string | n
     if (increasing && n > 2 && maxStep > minStep) return names[j];
   }
   return null;
+}
+
+/**
+ * sum e_t e_{t-1} / sum e_t^2 over the pairs of observations one period apart (gaps honoured).
+ *
+ * @example
+ * ```ts
+ * firstOrderAutocorrelation(Float64Array.of(1, -1, 1, -1)); // -0.75
+ * ```
+ */
+export function firstOrderAutocorrelation(e: Float64Array, times?: ArrayLike<number>): number {
+  const pairs = differencePairs(e.length, 1, times);
+  let num = 0, den = 0;
+  for (let i = 0; i < pairs.from.length; i++) num += e[pairs.to[i]] * e[pairs.from[i]];
+  for (let t = 0; t < e.length; t++) den += e[t] * e[t];
+  return den > 0 ? num / den : 0;
 }
 
 /** ||Q'e|| / ||e|| for the basis Q of col(X). */

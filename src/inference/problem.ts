@@ -11,6 +11,7 @@ import { DwNullDistribution } from '../distribution/null-distribution.js';
 import { designSource, type NullSource } from '../distribution/source.js';
 import { AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { DwError } from '../errors.js';
+import type { DwWarning } from './warnings.js';
 import { buildDesign, factorDesign, CONDITION_WARNING, type FactoredDesign, type RegressorInput } from '../model/design.js';
 
 /** What defines the statistic and its design. */
@@ -36,7 +37,7 @@ export interface DwProblem {
   operator: BandMatrix;
   distribution: DwNullDistribution;
   /** Notes on the design worth showing the user. */
-  warnings: string[];
+  warnings: DwWarning[];
 }
 
 /**
@@ -84,9 +85,7 @@ export function prepareProblem(x: RegressorInput, n: number, options: ProblemOpt
   const source = designSource(n - design.k, operator, basis, () => fastSpectrum(operator, basis), spectrumError);
   const distribution = new DwNullDistribution(source, { method: options.method, tolerance: options.tolerance });
   checkNotDegenerate(source, n);
-  const warnings: string[] = [];
-  if (factored.condition > CONDITION_WARNING) {
-    warnings.push(`The design is ill-conditioned (condition number about ${factored.condition.toExponential(1)}); centring or rescaling the regressors would make the answer more robust.`);
-  }
+  const warnings: DwWarning[] = [];
+  if (factored.condition > CONDITION_WARNING) warnings.push({ code: 'DESIGN_ILL_CONDITIONED', condition: factored.condition });
   return { factored, pairs, operator, distribution, warnings };
 }

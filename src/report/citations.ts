@@ -6,13 +6,15 @@
  * Pan (1968) and Farebrother (1980, AS 153) the finite-range formula; Daniels (1954) the choice of
  * the inversion line through the saddlepoint (the inversion itself is exact); Savin & White (1977)
  * the extended bounds tables (cited only for cases inside them); Wallis (1972) the lag-4 statistic; Durbin (1970), Breusch (1978) and
- * Godfrey (1978) the tests for dynamic models.
+ * Godfrey (1978) the tests for dynamic models and the Breusch-Godfrey test beside d; the software
+ * itself under the key `exact-dw`.
  *
  * Bibliographic details (volumes, issue numbers, pages, titles) are quoted from memory: check
  * them against the journals before a final submission.
  */
 import type { DwTestResult } from '../inference/dw-test.js';
 import type { InlineFormat } from './format.js';
+import { VERSION } from '../version.js';
 
 /** One cited work. */
 export interface CitedWork {
@@ -25,6 +27,19 @@ export interface CitedWork {
   bibtex: string;
   /** The BibTeX fields (author, title, journal, year, volume, number, pages). */
   fields: Record<string, string>;
+}
+
+/** The BibTeX entry of this software (a @software entry; biblatex reads it, BibTeX styles treat it as @misc). */
+function softwareWork(): CitedWork {
+  const fields: [string, string][] = [
+    ['author', '{exact-dw contributors}'],
+    ['title', 'exact-dw: Exact Finite-Sample {Durbin--Watson} Tests for Your Own Design'],
+    ['year', '2026'],
+    ['version', VERSION],
+    ['note', `TypeScript library, command-line tool and offline web page, version ${VERSION}`],
+  ];
+  const body = fields.map(([k, v]) => `  ${k.padEnd(7)} = {${v}},`).join('\n');
+  return { key: 'exact-dw', authors: 'exact-dw contributors', year: 2026, bibtex: `@software{exact-dw,\n${body}\n}\n`, fields: Object.fromEntries(fields) };
 }
 
 function article(key: string, authors: string, year: number, fields: [string, string][]): CitedWork {
@@ -47,6 +62,12 @@ export function formatReference(key: string, format: InlineFormat): string {
   const w = WORKS[key];
   if (!w) throw new RangeError(`report: no work with key ${key}`);
   const f = w.fields;
+  if (key === 'exact-dw') {
+    const title = f.title.replace(/[{}]/g, '').replace('--', format === 'latex' ? '--' : format === 'markdown' ? '–' : '-');
+    return format === 'markdown' ? `exact-dw contributors (${f.year}). *${title}*. Version ${f.version}.`
+      : format === 'latex' ? `exact-dw contributors (${f.year}). \\emph{${title}}. Version ${f.version}.`
+        : `exact-dw contributors (${f.year}). ${title}. Version ${f.version}.`;
+  }
   const title = f.title.replace(/[{}]/g, '');
   const pages = format === 'latex' ? f.pages : f.pages.replace('--', format === 'markdown' ? '–' : '-');
   if (format === 'latex') {
@@ -60,6 +81,7 @@ export function formatReference(key: string, format: InlineFormat): string {
 // All volume, issue and page numbers below are from memory (see the note at the top).
 /** Every work the reports can cite, by key. */
 export const WORKS: Record<string, CitedWork> = {
+  'exact-dw': softwareWork(),
   'durbin-watson-1950': article('durbin-watson-1950', 'Durbin and Watson', 1950, [
     ['author', 'Durbin, J. and Watson, G. S.'],
     ['title', 'Testing for Serial Correlation in Least Squares Regression. {I}'],
@@ -230,6 +252,8 @@ export function citedKeys(r: DwTestResult): string[] {
   } else {
     keys.push('durbin-1970', 'breusch-1978', 'godfrey-1978');
   }
+  if (dIsValid(r) && r.breuschGodfrey) keys.push('breusch-1978', 'godfrey-1978');
+  keys.push('exact-dw');
   return keys;
 }
 

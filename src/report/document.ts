@@ -6,8 +6,9 @@
  */
 import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
 import { VERSION } from '../version.js';
+import { boundsResolutionWords, nextStepsWords, timeIndexWords, warningText, rowList } from './wording.js';
 import { dIsValid, savinWhiteCovers } from './citations.js';
-import { andList, bound, cite, code, dFormula, estimate, fixed, level, plain, probability, probabilityRelation, prose, sym } from './format.js';
+import { andList, arFormula, bound, cite, code, dFormula, estimate, fixed, level, math, plain, probability, probabilityRelation, prose, sym } from './format.js';
 
 /** A paragraph. */
 export interface ParagraphBlock { kind: 'para'; text: string }
@@ -99,7 +100,7 @@ export function zoneWords(zone: BoundsZone['zone']): string {
   switch (zone) {
     case 'reject-positive': return `below ${sym('dL')}: the bounds test rejects in favour of positive autocorrelation`;
     case 'inconclusive-positive': return `between ${sym('dL')} and ${sym('dU')}: the bounds test is inconclusive`;
-    case 'no-evidence': return `between ${sym('dU')} and 4 ${sym('minus')} ${sym('dU')}: the bounds test finds no evidence of autocorrelation`;
+    case 'no-evidence': return `between ${sym('dU')} and 4 ${sym('minus')} ${sym('dU')}: the bounds test does not reject the null hypothesis of no autocorrelation`;
     case 'inconclusive-negative': return `between 4 ${sym('minus')} ${sym('dU')} and 4 ${sym('minus')} ${sym('dL')}: the bounds test is inconclusive (negative side)`;
     case 'reject-negative': return `above 4 ${sym('minus')} ${sym('dL')}: the bounds test rejects in favour of negative autocorrelation`;
     default: return String(zone);
@@ -138,7 +139,7 @@ export function engineWords(method: string): string {
   if (method === 'imhof') return `Imhof's numerical inversion of the characteristic function, on the eigenvalues of the design ${cite('imhof-1961')}`;
   if (method === 'pan') return `Pan's finite-range formula ${cite('pan-1968', 'farebrother-1980')}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of the characteristic function, evaluated through a log-determinant without eigenvalues ${cite('imhof-1961')}`;
-  if (method === 'saddlepoint') return `exact numerical inversion of the distribution function along a line through the saddlepoint ${cite('daniels-1954')}, on the eigenvalues of the design (relative accuracy in small tails)`;
+  if (method === 'saddlepoint') return `exact numerical inversion of the distribution function on the eigenvalues of the design, along the vertical line through the saddlepoint; the saddlepoint is that of Daniels ${cite('daniels-1954')}, used only to place the line (which keeps relative accuracy in small tails), so the result is the exact inversion, not Daniels's saddlepoint approximation`;
   return plain(method);
 }
 
@@ -196,17 +197,17 @@ export function describePower(r: DwTestResult): PowerDescription {
 }
 
 /**
- * "u(t) = rho u(t - 1) + e(t)" or, for the seasonal process, "u(t) = rho u(t - 4) + e(t)".
+ * "u(t) = rho u(t-1) + eps(t)" or, for the seasonal process, "u(t) = rho u(t-4) + eps(t)": u the
+ * errors, eps the innovations, kept apart from the residuals e of the fit.
  *
  * @example
  * ```ts
- * inline(processFormula('ar1', 1), 'text');      // "u(t) = rho u(t - 1) + e(t)"
- * inline(processFormula('seasonal', 4), 'text'); // "u(t) = rho u(t - 4) + e(t)"
+ * inline(processFormula('ar1', 1), 'text');      // "u(t) = rho u(t-1) + eps(t)"
+ * inline(processFormula('seasonal', 4), 'latex'); // "$u_t = \rho\, u_{t-4} + \varepsilon_t$"
  * ```
  */
 export function processFormula(process: 'ar1' | 'seasonal', lag: number): string {
-  const step = process === 'seasonal' ? lag : 1;
-  return `u(t) = ${sym('rho')} u(t ${sym('minus')} ${step}) + e(t)`;
+  return arFormula(process === 'seasonal' ? lag : 1);
 }
 
 /** The rejection region of the test whose power is shown, e.g. "d <= 1.2046 or d >= 2.7954". */
@@ -338,9 +339,9 @@ function dynamicSection(r: DwTestResult): ReportSection {
   const rows: string[][] = [
     [`Durbin's ${sym('h')}`, hOk ? fixed(dyn.durbinH.h as number, STAT_DECIMALS) : 'undefined',
       hOk && dyn.durbinH.pValue !== null ? probability(dyn.durbinH.pValue, { alpha: r.alpha }) : '', hOk ? 'normal' : ''],
-    [`Breusch${sym('ndash')}Godfrey LM, order ${bg.order}`, fixed(bg.lm, STAT_DECIMALS), probability(bg.pChiSquare, { alpha: r.alpha }), `${sym('chi2')}, ${bg.order} df`],
-    [`Breusch${sym('ndash')}Godfrey, ${sym('F')} form`, fixed(bg.f, STAT_DECIMALS), probability(bg.pF, { alpha: r.alpha }), `${sym('F')}(${bg.df1}, ${bg.df2})`],
-    [`Residual on its own lag, ${sym('t')}`, fixed(dyn.residualT.t, STAT_DECIMALS), probability(dyn.residualT.pValue, { alpha: r.alpha }), 'normal'],
+    [`Breusch${sym('ndash')}Godfrey LM, order ${bg.order}`, fixed(bg.lm, STAT_DECIMALS), probability(bg.pChiSquare, { alpha: r.alpha }), math(`\\chi^2_{${bg.order}}`, `chi-square, ${bg.order} df`, `χ², ${bg.order} df`)],
+    [`Breusch${sym('ndash')}Godfrey, ${sym('F')} form`, fixed(bg.f, STAT_DECIMALS), probability(bg.pF, { alpha: r.alpha }), math(`F(${bg.df1}, ${bg.df2})`, `F(${bg.df1}, ${bg.df2})`, `*F*(${bg.df1}, ${bg.df2})`)],
+    [`Durbin's alternative test, ${sym('t')} on the lagged residual`, fixed(dyn.residualT.t, STAT_DECIMALS), probability(dyn.residualT.pValue, { alpha: r.alpha }), 'normal'],
   ];
   const blocks: ReportBlock[] = [
     para(`The regressors include the lagged dependent variable ${code(dyn.laggedDependent)} (${dyn.how === 'declared' ? 'declared by the caller' : 'detected from the data'}). ` +
@@ -354,6 +355,38 @@ function dynamicSection(r: DwTestResult): ReportSection {
     blocks.push(para(/^Durbin's h\b/.test(dyn.durbinH.reason) ? why : `Durbin's ${sym('h')} is undefined: ${why}`));
   }
   return { id: 'dynamic', heading: 'Tests for a model with a lagged dependent variable (asymptotic)', blocks };
+}
+
+/** True when d (valid), the Breusch-Godfrey test beside it, or the tests of a dynamic model reject at alpha. */
+function rejectsSomewhere(r: DwTestResult): boolean {
+  if (r.dynamic) return r.dynamic.breuschGodfrey.pChiSquare <= r.alpha || (r.dynamic.durbinH.pValue !== null && r.dynamic.durbinH.pValue <= r.alpha);
+  return r.decision === 'reject' || (r.breuschGodfrey !== null && r.breuschGodfrey !== undefined && r.breuschGodfrey.pChiSquare <= r.alpha);
+}
+
+/** The options of a run on one line, "--y sales --lag 4 --drop-missing". */
+function optionsLine(options: NonNullable<DwTestResult['options']>): string {
+  return Object.entries(options).filter(([, v]) => v !== false && v !== undefined)
+    .map(([k, v]) => (v === true ? `--${k}` : `--${k} ${Array.isArray(v) ? v.join(',') : String(v)}`)).join(' ');
+}
+
+function serialSection(r: DwTestResult): ReportSection {
+  const bg = r.breuschGodfrey!;
+  const rows: string[][] = [
+    [`Breusch${sym('ndash')}Godfrey LM, order ${bg.order}`, fixed(bg.lm, STAT_DECIMALS), probability(bg.pChiSquare, { alpha: r.alpha }), math(`\\chi^2_{${bg.order}}`, `chi-square, ${bg.order} df`, `χ², ${bg.order} df`)],
+    [`Breusch${sym('ndash')}Godfrey, ${sym('F')} form`, fixed(bg.f, STAT_DECIMALS), probability(bg.pF, { alpha: r.alpha }), math(`F(${bg.df1}, ${bg.df2})`, `F(${bg.df1}, ${bg.df2})`, `*F*(${bg.df1}, ${bg.df2})`)],
+  ];
+  const verdict = bg.pChiSquare <= r.alpha ? 'rejects' : 'does not reject';
+  return {
+    id: 'serial', heading: `Breusch${sym('ndash')}Godfrey test of order ${bg.order} (asymptotic)`, blocks: [
+      { kind: 'table', head: ['Test', 'Statistic', `${sym('p')} (asymptotic)`, 'Reference'], align: ['l', 'r', 'r', 'l'], rows },
+      {
+        kind: 'fields', rows: [[`First-order autocorrelation of the residuals, ${sym('rhoHat')}`, fixed(r.rhoHat, STAT_DECIMALS)]],
+      },
+      para(`The Breusch${sym('ndash')}Godfrey test ${cite('breusch-1978', 'godfrey-1978')} regresses the residuals on the regressors and ${bg.order === 1 ? 'the residual lagged once' : `the residuals lagged 1 to ${bg.order} periods`} ` +
+        `(zero before the sample and across gaps); it is asymptotic and, unlike ${sym('d')}, also aimed at autocorrelation up to order ${bg.order}. At ${sym('alpha')} = ${level(r.alpha)} it ${verdict} the null hypothesis of no autocorrelation. ` +
+        `${sym('rhoHat')} is the sum of the products of residuals one period apart over the sum of squared residuals.`),
+    ],
+  };
 }
 
 /**
@@ -371,12 +404,14 @@ export function buildReport(r: DwTestResult): ReportDocument {
 
   // 1. conclusion first
   if (valid) {
-    sections.push({ id: 'conclusion', heading: 'Conclusion', blocks: [para(conclusionStatic(r))] });
+    const blocks = [para(conclusionStatic(r))];
+    if (rejectsSomewhere(r)) blocks.push(para(nextStepsWords()));
+    sections.push({ id: 'conclusion', heading: 'Conclusion', blocks });
   } else {
     sections.push({
       id: 'conclusion', heading: 'Conclusion', blocks: [para(
         `The model has a lagged dependent variable, so the Durbin${sym('ndash')}Watson ${sym('d')} is not a valid test and its ${sym('p')}-value is not reported. ` +
-        `${capitalise(dynamicVerdict(r))} (asymptotic tests, see below).`)],
+        `${capitalise(dynamicVerdict(r))} (asymptotic tests, see below).`), ...(rejectsSomewhere(r) ? [para(nextStepsWords())] : [])],
     });
     sections.push(dynamicSection(r));
   }
@@ -387,7 +422,7 @@ export function buildReport(r: DwTestResult): ReportDocument {
     statRows.push([`Exact null mean of ${sym('d')}`, fixed(r.nullMean, D_DECIMALS)]);
     statRows.push([`Exact null standard deviation of ${sym('d')}`, fixed(Math.sqrt(r.nullVariance), D_DECIMALS)]);
   }
-  statRows.push(['Differences', r.lag > 1 ? `lag ${r.lag} ${cite('wallis-1972')}` : 'lag 1']);
+  statRows.push(['Differences', r.lag === 4 ? `lag 4: Wallis's ${sym('d4')} ${cite('wallis-1972')}` : r.lag > 1 ? `lag ${r.lag} (the lag-${r.lag} analogue of Wallis's ${sym('d4')} ${cite('wallis-1972')})` : 'lag 1']);
   if (r.panel) statRows.push(['Panel', `${r.panel.entities} entities (${r.panel.smallest} to ${r.panel.largest} periods each), ${r.panel.pairs} differences, each within one entity${r.panel.entityEffects ? '; one indicator per entity instead of the intercept' : ''}`]);
   else if (r.gaps) statRows.push(['Time index', `has gaps: only pairs exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart are differenced`]);
   const statBlocks: ReportBlock[] = [
@@ -430,6 +465,9 @@ export function buildReport(r: DwTestResult): ReportDocument {
       ],
     });
 
+    // 4b. Breusch-Godfrey of order p and the residual autocorrelation, next to d
+    if (r.breuschGodfrey) sections.push(serialSection(r));
+
     // 5. bounds test
     if (r.bounds) {
       const b = r.bounds;
@@ -446,10 +484,10 @@ export function buildReport(r: DwTestResult): ReportDocument {
       sections.push({
         id: 'bounds', heading: 'The classical bounds test', blocks: [
           { kind: 'fields', rows },
-          para(prose(b.resolution)),
-          para(`The bounds ${sym('dL')} and ${sym('dU')} of the classical test ${cite('durbin-watson-1950', 'durbin-watson-1951')} are computed exactly for this ${sym('n')} and ${sym('kp')}; ` +
+          para(prose(boundsResolutionWords(b.resolution))),
+          para(`The bounds ${sym('dL')} and ${sym('dU')} of the bounds test ${cite('durbin-watson-1951')} are computed exactly for this ${sym('n')} and ${sym('kp')}; ` +
             (savinWhiteCovers(r.n, b.kPrime, b.level)
-              ? `printed tables ${cite('savin-white-1977')} give the same values to three decimals. `
+              ? `the printed tables ${cite('savin-white-1977')} give the same values to three decimals. `
               : `this case (${sym('n')} = ${r.n}, ${sym('kp')} = ${b.kPrime}, level ${level(b.level)}) lies beyond the printed tables, so the values above are the only source. `) +
             `They hold for every design with an intercept and ${sym('k')} columns; the critical values above are for this one.`),
         ],
@@ -478,7 +516,9 @@ export function buildReport(r: DwTestResult): ReportDocument {
     [`Residual degrees of freedom, ${sym('m')} = ${sym('n')} ${sym('minus')} ${sym('k')}`, String(r.m)],
     ['Intercept', interceptWords(r)],
     ['Regressors', regs.length ? regs.map(code).join(', ') : 'none (intercept only)'],
+    ['Time index', timeIndexWords(r.timeColumn ?? null)],
   ];
+  if (r.droppedRows) modelRows.push(['Rows dropped (missing values)', `${r.droppedRows.count}: data rows ${rowList(r.droppedRows.rows)} (counted from 1 after the header)`]);
   if (r.rSquared !== null && r.rSquared !== undefined) modelRows.push([sym('R2'), Number.isFinite(r.rSquared) ? fixed(r.rSquared, 4) : 'undefined']);
   const modelBlocks: ReportBlock[] = [{ kind: 'fields', rows: modelRows }];
   if (r.coefficients && r.coefficients.length) {
@@ -501,11 +541,16 @@ export function buildReport(r: DwTestResult): ReportDocument {
   } else {
     compRows.push(['Method', `asymptotic normal, ${sym('chi2')} and ${sym('F')} reference distributions`]);
   }
-  compRows.push(['Software', `exact-dw ${VERSION}`]);
+  compRows.push(['Software', `exact-dw ${VERSION} ${cite('exact-dw')}`]);
+  if (r.input) {
+    const size = r.input.bytes !== undefined ? `, ${r.input.bytes} bytes` : '';
+    compRows.push(['Input', `${code(r.input.name)}${size}${r.input.sha256 ? `, SHA-256 ${code(r.input.sha256)}` : ''}`]);
+  }
+  if (r.options && Object.keys(r.options).length) compRows.push(['Options', code(optionsLine(r.options))]);
   sections.push({ id: 'computation', heading: 'Computation', blocks: [{ kind: 'fields', rows: compRows }] });
 
   // 9. notes
-  if (r.warnings.length) sections.push({ id: 'notes', heading: 'Notes', blocks: [{ kind: 'list', items: r.warnings.map(prose) }] });
+  if (r.warnings.length) sections.push({ id: 'notes', heading: 'Notes', blocks: [{ kind: 'list', items: r.warnings.map(warningText) }] });
 
   // 10. cautions
   sections.push({

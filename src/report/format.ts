@@ -21,6 +21,9 @@ const SYMBOLS: Record<string, Record<InlineFormat, string>> = {
   D: { text: 'D', markdown: '*D*', latex: '$D$' },
   dL: { text: 'd_L', markdown: '*d*<sub>L</sub>', latex: '$d_L$' },
   dU: { text: 'd_U', markdown: '*d*<sub>U</sub>', latex: '$d_U$' },
+  d4: { text: 'd_4', markdown: '*d*<sub>4</sub>', latex: '$d_4$' },
+  rhoHat: { text: 'rho-hat', markdown: 'ρ̂', latex: '$\\hat\\rho$' },
+  nV: { text: 'n V', markdown: '*nV*', latex: '$nV$' },
   n: { text: 'n', markdown: '*n*', latex: '$n$' },
   k: { text: 'k', markdown: '*k*', latex: '$k$' },
   kp: { text: "k'", markdown: "*k*'", latex: "$k'$" },
@@ -85,6 +88,7 @@ export function plain(s: string): string {
  */
 export function prose(s: string): string {
   return plain(s)
+    .replace(/(^|[\s(])d(?= (?:=|<=|>=|<|>) )/g, (_m, pre: string) => `${pre}${sym('d')}`)
     .replace(/\bd_L\b/g, sym('dL'))
     .replace(/\bd_U\b/g, sym('dU'))
     .replace(/ <= /g, ` ${sym('le')} `)
@@ -153,6 +157,37 @@ export function inline(s: string, format: InlineFormat): string {
     out += token(s.slice(a + 1, b), format);
     i = b + 1;
   }
+  return format === 'latex' ? mergeMath(out) : out;
+}
+
+const NUMBER_TEX = String.raw`-?\d+(?:\.\d+)?(?:\s\\times 10\^\{-?\d+\})?`;
+
+/**
+ * Join neighbouring LaTeX math so that a relation and its number sit in one math span:
+ * "$\alpha$ = 0.05" becomes "$\alpha = 0.05$", "$p$ $\le$ 0.05" becomes "$p \le 0.05$".
+ *
+ * @example
+ * ```ts
+ * mergeMath('$d$ = 1.2 and $p$ $\\le$ 0.05'); // "$d = 1.2$ and $p \\le 0.05$"
+ * ```
+ */
+export function mergeMath(tex: string): string {
+  const rules: [RegExp, (...m: string[]) => string][] = [
+    // a relation or a minus joins its neighbours; two symbols side by side ("chi^2 p") stay apart
+    [/\$([^$]+)\$ \$((?:\\le|\\ge|<|>|-)(?![a-zA-Z])[^$]*)\$/g, (_m, a, b) => `$${a} ${b}$`],
+    [/\$([^$]*(?:\\le|\\ge|<|>|-))\$ \$([^$]+)\$/g, (_m, a, b) => `$${a} ${b}$`],
+    [/(?<![\w.])(\d+(?:\.\d+)?) \$((?:\\le|\\ge|<|>|-) [^$]+)\$/g, (_m, a, b) => `$${a} ${b}$`],
+    [/\$-\$(\d+(?:\.\d+)?)(?!\d|\.\d)/g, (_m, a) => `$-${a}$`],
+    [/\$([^$]+)\$ = \$([^$]+)\$/g, (_m, a, b) => `$${a} = ${b}$`],
+    [new RegExp(String.raw`\$([^$]+)\$ = (${NUMBER_TEX})(?!\d|\.\d)`, 'g'), (_m, a, b) => `$${a} = ${b}$`],
+    [new RegExp(String.raw`\$([^$]*(?:\\le|\\ge|<|>|-))\$ (${NUMBER_TEX})(?!\d|\.\d)`, 'g'), (_m, a, b) => `$${a} ${b}$`],
+  ];
+  let prev = '';
+  let out = tex;
+  while (out !== prev) {
+    prev = out;
+    for (const [re, f] of rules) out = out.replace(re, f as (...args: string[]) => string);
+  }
   return out;
 }
 
@@ -176,6 +211,19 @@ function token(t: string, format: InlineFormat): string {
     if (format === 'markdown') return `*d* = Σ (*e*<sub>t</sub> - *e*<sub>t-${j}</sub>)<sup>2</sup> / Σ *e*<sub>t</sub><sup>2</sup>`;
     return `d = sum (e(t) - e(t-${j}))^2 / sum e(t)^2`;
   }
+  if (t.startsWith('arformula:')) {
+    // u_t = rho u_{t-j} + eps_t: u the errors, eps the innovations (not the residuals e)
+    const j = t.slice(10);
+    if (format === 'latex') return `$u_t = \\rho\\, u_{t-${j}} + \\varepsilon_t$`;
+    if (format === 'markdown') return `*u*<sub>t</sub> = ρ *u*<sub>t-${j}</sub> + ε<sub>t</sub>`;
+    return `u(t) = rho u(t-${j}) + eps(t)`;
+  }
+  if (t.startsWith('math:')) {
+    // a short formula: LaTeX math mode as written, plain text and Markdown with the ASCII spelling
+    const [tex, plainText, md] = t.slice(5).split('|');
+    if (format === 'latex') return `$${tex}$`;
+    return format === 'markdown' ? (md ?? escapeMarkdown(plainText ?? tex)) : (plainText ?? tex);
+  }
   if (t.startsWith('code:')) {
     const body = t.slice(5);
     if (format === 'latex') return `\\texttt{${escapeLatex(body)}}`;
@@ -186,6 +234,31 @@ function token(t: string, format: InlineFormat): string {
   const s = SYMBOLS[t];
   if (!s) throw new RangeError(`report: unknown token ${t}`);
   return s[format];
+}
+
+/**
+ * The AR error process as a formula token: errors u, innovations epsilon (the residuals are e).
+ *
+ * @example
+ * ```ts
+ * inline(arFormula(1), 'latex'); // "$u_t = \\rho\\, u_{t-1} + \\varepsilon_t$"
+ * ```
+ */
+export function arFormula(step: number): string {
+  return `${OPEN}arformula:${step}${CLOSE}`;
+}
+
+/**
+ * A short formula: set in LaTeX math mode as `tex`, as `text` in plain text, and as `markdown`
+ * (already Markdown; default: `text` escaped) in Markdown. No '|' or angle quotes in any of them.
+ *
+ * @example
+ * ```ts
+ * inline(math('m = n - k', 'm = n - k'), 'latex'); // "$m = n - k$"
+ * ```
+ */
+export function math(tex: string, text: string, markdown?: string): string {
+  return `${OPEN}math:${tex}|${text}${markdown !== undefined ? `|${markdown}` : ''}${CLOSE}`;
 }
 
 /**

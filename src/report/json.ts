@@ -27,11 +27,18 @@ const POWER_KEYS = [
 /** Key order of each object in the result, by path ('' is the top level, '[]' an array element). */
 const KEY_ORDER: Record<string, string[]> = {
   '': [
-    'packageVersion', 'd', 'n', 'k', 'm', 'lag', 'gaps', 'intercept', 'interceptAdded', 'columns',
+    'packageVersion', 'd', 'n', 'k', 'm', 'lag', 'gaps', 'timeColumn', 'droppedRows', 'intercept', 'interceptAdded', 'columns',
     'coefficients', 'rSquared', 'dValid', 'alternative', 'alpha', 'pValue', 'pPositive', 'pNegative', 'pTwoSided',
     'critical', 'decision', 'method', 'methodReason', 'errorBound', 'nullMean', 'nullVariance',
-    'bounds', 'power', 'dynamic', 'dForReferenceOnly', 'warnings',
+    'bounds', 'power', 'rhoHat', 'breuschGodfrey', 'dynamic', 'dForReferenceOnly', 'warnings',
+    'software', 'input', 'options',
   ],
+  software: ['name', 'version'],
+  input: ['name', 'sha256', 'bytes'],
+  timeColumn: ['name', 'how', 'format', 'frequency', 'frequencySource', 'first', 'last', 'missingPeriods'],
+  droppedRows: ['count', 'rows'],
+  breuschGodfrey: ['order', 'lm', 'pChiSquare', 'f', 'pF', 'df1', 'df2', 'rSquared', 'n'],
+  'warnings[]': ['code'],
   dForReferenceOnly: [...D_ONLY],
   'coefficients[]': ['name', 'estimate', 'stdError'],
   critical: ['lower', 'upper', 'tailLevel'],

@@ -10,7 +10,7 @@ import { VERSION } from '../version.js';
 import { dIsValid, engineKeys, savinWhiteCovers } from './citations.js';
 import { alternativeWords, describePower, dynamicVerdict, nullWords, processFormula } from './document.js';
 import type { ProbabilityContext } from '../core/format-number.js';
-import { andList, bound, cite, fixed, inline, level, paperP, percent, plain, probabilityRelation, sym, type InlineFormat } from './format.js';
+import { andList, bound, cite, fixed, inline, level, math, paperP, percent, plain, probabilityRelation, sym, type InlineFormat } from './format.js';
 
 /** Decimals of d, critical values and bounds in the paragraph. */
 export const PARAGRAPH_D_DECIMALS = 3;
@@ -42,7 +42,7 @@ function methodPhrase(method: string): string {
   const c = cite(...engineKeys(method));
   if (method === 'pan') return `Pan's finite-range representation of its distribution function ${c}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of its characteristic function, evaluated through a log-determinant ${c}`;
-  if (method === 'saddlepoint') return `exact numerical inversion of its distribution function along a line through the saddlepoint ${c}`;
+  if (method === 'saddlepoint') return `exact numerical inversion of its distribution function along the line through the saddlepoint (the point of Daniels's saddlepoint method ${c}, used only to place the line; no saddlepoint approximation is made)`;
   return `Imhof's numerical inversion of its characteristic function ${c}`;
 }
 
@@ -52,7 +52,7 @@ function boundsPhrase(r: DwTestResult): string {
   const verdict =
     zone === 'reject-positive' ? 'would have rejected in favour of positive autocorrelation'
       : zone === 'reject-negative' ? 'would have rejected in favour of negative autocorrelation'
-        : zone === 'no-evidence' ? 'would have found no evidence of autocorrelation'
+        : zone === 'no-evidence' ? 'would not have rejected the null hypothesis of no autocorrelation'
           : 'would have been inconclusive';
   const lvl = `${percent(b.level)}${sym('percent')} level${r.alternative === 'two-sided' ? ' in each tail' : ''}`;
   const source = savinWhiteCovers(r.n, b.kPrime, b.level)
@@ -65,7 +65,7 @@ function boundsPhrase(r: DwTestResult): string {
 function staticParagraph(r: DwTestResult): string[] {
   const s: string[] = [];
   let first = `Serial correlation of the least-squares residuals of a regression with ${modelWords(r)} was examined with the Durbin${sym('ndash')}Watson statistic ${sym('d')} ${cite('durbin-watson-1950', 'durbin-watson-1951')}`;
-  if (r.lag > 1) first += `, formed from differences at lag ${r.lag} ${cite('wallis-1972')}`;
+  if (r.lag > 1) first += r.lag === 4 ? `, formed from differences at lag 4, as in Wallis's ${sym('d4')} ${cite('wallis-1972')}` : `, formed from differences at lag ${r.lag} ${cite('wallis-1972')}`;
   if (r.panel) first += `, pooled over ${r.panel.entities} entities${r.panel.entityEffects ? ' with one intercept per entity (fixed effects)' : ''}, with differences taken only between observations of the same entity exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart`;
   else if (r.gaps) first += `; as the time index has gaps, only pairs of observations exactly ${r.lag} period${r.lag > 1 ? 's' : ''} apart were differenced`;
   s.push(first + '.');
@@ -106,8 +106,8 @@ function staticParagraph(r: DwTestResult): string[] {
 
 /** The short reason h is undefined, "n V = 1.31 >= 1", from the library's longer one. */
 function undefinedWhy(reason: string): string {
-  const m = /n V = [^ ,;)]+ >= 1/.exec(reason);
-  return m ? m[0].replace(' >= ', ` ${sym('ge')} `) : `n V ${sym('ge')} 1`;
+  const m = /n V = ([^ ,;)]+) >= 1/.exec(reason);
+  return m ? math(`nV = ${m[1]} \\ge 1`, `n V = ${m[1]} >= 1`, `*nV* = ${m[1]} ≥ 1`) : math('nV \\ge 1', 'n V >= 1', '*nV* ≥ 1');
 }
 
 function dynamicParagraph(r: DwTestResult): string[] {
@@ -139,6 +139,15 @@ function dynamicParagraph(r: DwTestResult): string[] {
  */
 export function paperParagraph(r: DwTestResult, format: InlineFormat = 'text'): string {
   const sentences = dIsValid(r) ? staticParagraph(r) : dynamicParagraph(r);
-  sentences.push(`The computations used exact-dw ${VERSION}.`);
+  if (r.droppedRows && r.droppedRows.count > 0) {
+    const c = r.droppedRows.count;
+    sentences.push(`${c === 1 ? 'One observation' : `${c} observations`} with a missing value ${c === 1 ? 'was' : 'were'} dropped and treated as ${c === 1 ? 'a gap' : 'gaps'} in the time index, so no difference was taken across ${c === 1 ? 'it' : 'them'}.`);
+  }
+  const bg = dIsValid(r) ? r.breuschGodfrey : null;
+  if (bg) {
+    sentences.push(`The asymptotic Breusch${sym('ndash')}Godfrey test of order ${bg.order} ${cite('breusch-1978', 'godfrey-1978')} gives LM = ${fixed(bg.lm, 2)} ` +
+      `(${sym('chi2')} ${pPhrase(bg.pChiSquare, { alpha: r.alpha })}), and the first-order autocorrelation of the residuals is ${sym('rhoHat')} = ${fixed(r.rhoHat, 2)}.`);
+  }
+  sentences.push(`The computations used exact-dw ${VERSION} ${cite('exact-dw')}.`);
   return inline(sentences.join(' '), format) + '\n';
 }

@@ -1,21 +1,121 @@
 /**
- * The human wording of the typed notes that results carry (`{ code, ...plain fields }`), in one
- * place shared by the reports, the command line and the page. Results hold only the codes and
- * their numbers; everything a person reads is made here.
+ * The words for the typed notes of a result (src/inference/warnings.ts) and for the other
+ * sentences that every report format, the command line and the page share: how the time index
+ * was chosen, which rows were dropped, and the usual next steps after a rejection. Written once, in
+ * the neutral markup of format.ts (render with `inline(text, format)`), so that no two outputs
+ * can word the same note differently.
  */
+import type { BatchNote, DwWarning, PanelNote } from '../inference/warnings.js';
+import type { TimeColumnInfo } from '../inference/data-input.js';
+import { andList, code, sym } from './format.js';
 
-/** A note on a pooled panel design. */
-export type PanelNote =
-  | { code: 'PANEL_BOUNDS_NOT_APPLICABLE'; entities: number }
-  | { code: 'ENTITY_EFFECTS_BOUNDS_NOT_APPLICABLE'; entities: number };
+const FORMAT_WORDS = { integer: 'whole numbers', quarter: 'quarter labels', month: 'month labels', date: 'ISO dates' } as const;
 
-/** A note on a batch of series. */
-export type BatchNote =
-  | { code: 'BATCH_GROUPS_FAILED'; failed: number; groups: number }
-  | { code: 'BATCH_NOT_VALID_EXCLUDED'; excluded: number }
-  | { code: 'BATCH_ADJUSTED'; method: 'holm' | 'bh'; family: number };
+/**
+ * A list of 1-based row numbers, shortened after `max` entries ("3, 7, 12 and 40 more").
+ *
+ * @example
+ * ```ts
+ * rowList([3, 7, 12]); // "3, 7 and 12"
+ * ```
+ */
+export function rowList(rows: number[], max = 20): string {
+  if (rows.length <= max) return andList(rows.map(String));
+  return `${rows.slice(0, max).join(', ')} and ${rows.length - max} more`;
+}
 
-/** Every typed note. */
+/**
+ * A note of a result in words (neutral markup).
+ *
+ * @example
+ * ```ts
+ * inline(warningText({ code: 'TIME_GAPS_NOT_HONOURED', column: 'year' }), 'text');
+ * // "The regressor 'year' looks like a time index with gaps ..."
+ * ```
+ */
+export function warningText(w: DwWarning): string {
+  switch (w.code) {
+    case 'TIME_INDEX_DETECTED':
+      return `No time column was named, so ${code(w.column)} (${FORMAT_WORDS[w.format]}, ${w.frequency}) was taken as the time index by the time-index rule; it is not a regressor. ` +
+        `${sym('d')} is taken only between observations exactly the lag apart in it. Name the time column, or turn the rule off, to choose otherwise.`;
+    case 'TIME_GAPS_NOT_HONOURED':
+      return `The regressor ${code(w.column)} looks like a time index with gaps (increasing whole numbers that skip some values), but it is not the time index, so its gaps are not honoured: ` +
+        `${sym('d')} is taken between consecutive rows. If it is the time index, name it as the time column.`;
+    case 'ROWS_DROPPED':
+      return `${w.count} row${w.count === 1 ? '' : 's'} with a missing value in a column of the model ${w.count === 1 ? 'was' : 'were'} dropped (data rows ${rowList(w.rows)}, counted from 1 after the header)` +
+        (w.asGaps ? '; each is a gap in the time index, so no difference is taken across it.' : '.');
+    case 'DESIGN_ILL_CONDITIONED':
+      return `The design is ill-conditioned (condition number about ${w.condition.toExponential(1)}); centring or rescaling the regressors would make the answer more robust.`;
+    case 'RESIDUALS_PROJECTED':
+      return `The residuals were not quite orthogonal to the design (relative component ${w.drift.toExponential(1)} in the space of the regressors, as from rounding when they were saved); that component was removed before computing ${sym('d')}.`;
+    case 'BOUNDS_NO_INTERCEPT':
+      return `The model has no intercept: the classical bounds tables (${sym('dL')}, ${sym('dU')}) do not apply; the exact ${sym('p')}-value does.`;
+    case 'BOUNDS_LAG_OR_GAPS':
+      return `The classical bounds tables (${sym('dL')}, ${sym('dU')}) are for lag 1 and consecutive observations; ${w.lag > 1 ? `at lag ${w.lag}` : 'with gaps in time'} they do not apply; the exact ${sym('p')}-value does.`;
+    case 'D_NOT_VALID_LAGGED_DEPENDENT':
+      return `The regressor ${code(w.column)} is the dependent variable lagged one period (${w.how === 'declared' ? 'as declared' : 'detected in the data'}): ` +
+        `${sym('d')} is then biased towards 2 and its exact null distribution does not hold, so the Durbin${sym('ndash')}Watson ${sym('p')}-value is not a valid test here. ` +
+        `Use Durbin's ${sym('h')}${w.hDefined ? '' : ' (undefined for these data)'} or the Breusch${sym('ndash')}Godfrey test of order ${w.bgOrder} (both asymptotic).`;
+    case 'LAGGED_DEPENDENT_MISMATCH':
+      return `The declared column ${code(w.column)} is not equal to y lagged one period in these data; the checks treat it as the lagged dependent variable all the same.`;
+    case 'PANEL_BOUNDS_NOT_APPLICABLE':
+    case 'ENTITY_EFFECTS_BOUNDS_NOT_APPLICABLE':
+      return noteText(w);
+    default:
+      return String((w as { code: string }).code);
+  }
+}
+
+/**
+ * The time index of a result in words (neutral markup), for the reports' data section.
+ *
+ * @example
+ * ```ts
+ * inline(timeIndexWords(result.timeColumn), 'text'); // "quarter (quarter labels, quarterly; named), 2015Q1 to 2019Q4, 2 periods missing"
+ * ```
+ */
+export function timeIndexWords(t: TimeColumnInfo | null): string {
+  if (t === null) return 'none: the rows are consecutive periods';
+  const name = t.name !== null ? code(t.name) : 'the given observation times';
+  const how = t.how === 'named' ? 'named' : t.how === 'detected' ? 'detected by the time-index rule' : 'data-row numbers, after dropping rows';
+  const freq = `${t.frequency}${t.frequencySource === 'inferred' ? ', inferred from the dates' : t.frequencySource === 'given' ? ', as given' : ''}`;
+  const gaps = t.missingPeriods === 0 ? 'no gaps' : `${t.missingPeriods} period${t.missingPeriods === 1 ? '' : 's'} missing`;
+  if (t.how === 'rows') return `data-row numbers (no time column; the dropped rows are gaps), ${gaps}`;
+  return `${name} (${FORMAT_WORDS[t.format]}, ${freq}; ${how}), ${t.first} to ${t.last}, ${gaps}`;
+}
+
+/**
+ * The usual next steps after the test rejects, in general words (neutral markup).
+ *
+ * @example
+ * ```ts
+ * inline(nextStepsWords(), 'text'); // "A rejection can also signal a misspecified model ..."
+ * ```
+ */
+export function nextStepsWords(): string {
+  return 'A rejection can also signal a misspecified model (an omitted variable, a wrong functional form, a structural break) rather than autocorrelated errors. ' +
+    'Usual next steps: check the specification; respecify the dynamics (for example add lags of the variables); or keep the model and use ' +
+    'standard errors that are robust to autocorrelation, or estimate it by feasible generalised least squares under an autocorrelated error model.';
+}
+
+/**
+ * The bounds-test sentence of src/bounds/zone.ts in the reports' wording: a test "does not
+ * reject"; it never "finds no evidence".
+ *
+ * @example
+ * ```ts
+ * boundsResolutionWords('... the bounds test finds no evidence of positive autocorrelation at 5%');
+ * // "... the bounds test does not reject no autocorrelation against positive autocorrelation at 5%"
+ * ```
+ */
+export function boundsResolutionWords(text: string): string {
+  return text.replace(/finds no evidence of autocorrelation in either direction/g, 'does not reject no autocorrelation against autocorrelation of either sign')
+    .replace(/finds no evidence of (positive|negative) autocorrelation/g, 'does not reject no autocorrelation against $1 autocorrelation')
+    .replace(/finds no evidence\b/g, 'does not reject');
+}
+
+
+/** Every typed note of a batch or a panel. */
 export type Note = PanelNote | BatchNote;
 
 /** What every batch table states under it. */

@@ -14,6 +14,45 @@ import { prepareProblem, type DwProblem } from '../inference/problem.js';
 import { renderText } from '../report/text.js';
 import { renderDensitySvg, paperParagraph, renderMarkdown } from '../report/index.js'; // REPORTS
 import { powerForProblem } from '../power/exact-power.js'; // POWER
+import { inline } from '../report/format.js';
+import { boundsResolutionWords, timeIndexWords, warningText } from '../report/wording.js';
+import type { DwWarning } from '../inference/warnings.js';
+
+/**
+ * A note of a result in plain words, as every report words it (src/report/wording.ts).
+ *
+ * @example
+ * ```ts
+ * warningWords({ code: 'BOUNDS_NO_INTERCEPT' }); // "The model has no intercept: ..."
+ * ```
+ */
+export function warningWords(w: DwWarning): string {
+  return inline(warningText(w), 'text');
+}
+
+/**
+ * The bounds-test sentence in the reports' wording.
+ *
+ * @example
+ * ```ts
+ * resolutionWords(result.bounds!.resolution);
+ * ```
+ */
+export function resolutionWords(text: string): string {
+  return inline(boundsResolutionWords(text), 'text');
+}
+
+/**
+ * The time index of a result in words, as the reports say it.
+ *
+ * @example
+ * ```ts
+ * timeIndexText(result); // "year (whole numbers, integer; detected by the time-index rule), 1998 to 2021, no gaps"
+ * ```
+ */
+export function timeIndexText(r: DwTestResult): string {
+  return inline(timeIndexWords(r.timeColumn ?? null), 'text');
+}
 
 /** Which optional parts this build of the page can show. */
 export const capabilities: Readonly<Record<'figure' | 'paragraph' | 'markdown' | 'power', boolean>> = {
@@ -60,6 +99,8 @@ export interface ReportExtras {
  * factorization behind the power), built once per input.
  */
 const problems = new WeakMap<DwTestInput, DwProblem>();
+/** The period numbers of the time index the test used (labels parsed, rows dropped). */
+const usedTimes = new WeakMap<DwTestInput, ArrayLike<number>>();
 function problemOf(input: DwTestInput, result: DwTestResult): DwProblem {
   let p = problems.get(input);
   if (!p) {
@@ -79,8 +120,9 @@ function problemOf(input: DwTestInput, result: DwTestResult): DwProblem {
  * ```
  */
 export function runTest(input: DwTestInput): DwTestResult {
-  const { result, problem } = runExactDwTest(input);
+  const { result, problem, times } = runExactDwTest(input);
   problems.set(input, problem);
+  if (times !== undefined) usedTimes.set(input, times);
   return result;
 }
 
@@ -148,6 +190,6 @@ export function markdownReport(result: DwTestResult): string | null {
  */
 export function powerAt(input: DwTestInput, result: DwTestResult, rho: number | null): PowerAtRho | null {
   if (!capabilities.power || rho === null) return null;
-  const s = powerForProblem(problemOf(input, result), { rho: [rho], alpha: result.alpha, alternative: result.alternative, times: input.times }); // POWER
+  const s = powerForProblem(problemOf(input, result), { rho: [rho], alpha: result.alpha, alternative: result.alternative, times: usedTimes.get(input) ?? input.times }); // POWER
   return { rho, power: s.curve[0].power, errorBound: s.curve[0].errorBound, critical: s.critical, target: s.target, rhoAtTarget: s.rhoAtTarget }; // POWER
 }

@@ -3,14 +3,14 @@
  * numeric, which could be the time column, and a first guess of y, the regressors and the time.
  * The guess follows the command line's default (every other numeric column is a regressor).
  */
-import { numericColumn, type DataTable } from '../data/csv.js';
+import { isMissingCell, numericColumn, textColumn, type DataTable } from '../data/csv.js';
+import { chooseTimeIndex, readsAsTimeIndex } from '../data/time-index.js';
 import type { ColumnInfo } from './protocol.js';
 
-/** Names that usually mark a time index rather than a regressor. */
-const TIME_NAME = /^(t|year|years|yr|time|date|period|quarter|qtr|month|week|day|obs|observation)$/i;
-
 /**
- * Numeric and time-like flags of every column.
+ * Numeric and time-like flags of every column. A column is numeric when every cell is a number
+ * or a missing value (with at least one number); time-like when its labels read as strictly
+ * increasing periods (src/data/time-index.ts).
  *
  * @example
  * ```ts
@@ -19,34 +19,36 @@ const TIME_NAME = /^(t|year|years|yr|time|date|period|quarter|qtr|month|week|day
  */
 export function summarizeColumns(table: DataTable): ColumnInfo[] {
   return table.headers.map((name) => {
-    let values: Float64Array;
+    const cells = textColumn(table, name);
+    const timeLike = readsAsTimeIndex(cells.filter((c) => !isMissingCell(c))) !== null;
+    let numeric = true;
     try {
-      values = numericColumn(table, name);
+      numericColumn(table, name, { missingAsNaN: true });
+      numeric = cells.some((c) => !isMissingCell(c));
     } catch {
-      return { name, numeric: false, timeLike: false };
+      numeric = false;
     }
-    let timeLike = true;
-    for (let i = 0; i < values.length; i++) {
-      if (!Number.isInteger(values[i]) || (i > 0 && values[i] <= values[i - 1])) { timeLike = false; break; }
-    }
-    return { name, numeric: true, timeLike };
+    const missing = cells.filter((c) => isMissingCell(c)).length;
+    return { name, numeric, timeLike, missing };
   });
 }
 
 /**
- * A first choice: the time column is a time-like column with a time-like name; y is the first
- * other numeric column that is not itself a run of whole numbers (else the first other numeric
- * column); the regressors are the remaining numeric columns.
+ * A first choice that follows the library's time-index rule (chooseTimeIndex, the rule of the
+ * command line and the API): y is the first numeric column that is not time-like (else the first
+ * numeric column); the time column is the one the rule takes (never y); the regressors are the
+ * remaining numeric columns.
  *
  * @example
  * ```ts
- * guessColumns([{ name: 'year', numeric: true, timeLike: true }, { name: 'y', numeric: true, timeLike: false }]);
+ * guessColumns(parseCsv('year,y\n2001,1.5\n2002,1.7\n'), summarizeColumns(table));
  * // { time: 'year', y: 'y', x: [] }
  * ```
  */
-export function guessColumns(columns: ColumnInfo[]): { y: string | null; x: string[]; time: string | null } {
-  const time = columns.find((c) => c.timeLike && TIME_NAME.test(c.name))?.name ?? null;
-  const numeric = columns.filter((c) => c.numeric && c.name !== time);
+export function guessColumns(table: DataTable, columns: ColumnInfo[]): { y: string | null; x: string[]; time: string | null } {
+  const numeric = columns.filter((c) => c.numeric);
   const y = (numeric.find((c) => !c.timeLike) ?? numeric[0])?.name ?? null;
-  return { y, x: numeric.map((c) => c.name).filter((name) => name !== y), time };
+  const choice = chooseTimeIndex(table.headers.map((h) => ({ name: h, cells: textColumn(table, h) })), { y: y ?? undefined });
+  const time = choice.column;
+  return { y, x: numeric.map((c) => c.name).filter((name) => name !== y && name !== time), time };
 }

@@ -28,6 +28,35 @@ export function h<K extends keyof HTMLElementTagNameMap>(
   return el;
 }
 
+/**
+ * Text with the trade's notation set as symbols: d_L, d_U, d_4 with subscripts, <= and >= as
+ * the signs ≤ and ≥ (the text stays text: no markup is parsed).
+ *
+ * @example
+ * ```ts
+ * h('p', {}, ...symbolText('d <= d_L')); // d ≤ d<sub>L</sub>
+ * ```
+ */
+export function symbolText(text: string): (Node | string)[] {
+  const out: (Node | string)[] = [];
+  const re = /\b([dk])_(L|U|\d+)\b/g;
+  const signs = (s: string) => s.replace(/<=/g, '\u2264').replace(/>=/g, '\u2265');
+  let last = 0;
+  for (const m of text.matchAll(re)) {
+    out.push(signs(text.slice(last, m.index)));
+    const sub = document.createElement('sub');
+    sub.textContent = m[2];
+    const i = document.createElement('i');
+    i.textContent = m[1];
+    const span = document.createElement('span');
+    span.append(i, sub);
+    out.push(span);
+    last = (m.index ?? 0) + m[0].length;
+  }
+  out.push(signs(text.slice(last)));
+  return out.filter((c) => c !== '');
+}
+
 /** The element with this id (the page's own markup guarantees it exists). */
 export function byId<T extends HTMLElement = HTMLElement>(id: string): T {
   const el = document.getElementById(id);

@@ -39,6 +39,7 @@ const el = {
   xNone: byId<HTMLButtonElement>('x-none'),
   intercept: byId<HTMLInputElement>('intercept'),
   time: byId<HTMLSelectElement>('time'),
+  dropMissing: byId<HTMLInputElement>('drop-missing'),
   lag: byId<HTMLInputElement>('lag'),
   alpha: byId<HTMLInputElement>('alpha'),
   rho: byId<HTMLInputElement>('rho'),
@@ -179,8 +180,8 @@ function readOptions(): ReadOptions {
   };
 }
 
-function loadText(text: string, source: string): void {
-  data = { text, source, ...readOptions() };
+function loadText(text: string, source: string, digest?: { sha256?: string; bytes?: number }): void {
+  data = { text, source, ...readOptions(), ...(digest ?? {}) };
   showError(el.dataError, null);
   send({ kind: 'inspect', id: nextId++, data });
 }
@@ -209,7 +210,19 @@ async function readFile(file: File): Promise<void> {
     });
     return;
   }
-  loadText(text, name);
+  loadText(text, name, await digestOf(file));
+}
+
+/** SHA-256 of a file's bytes with the browser's SubtleCrypto (offline), or only the size when it is unavailable. */
+async function digestOf(file: File): Promise<{ sha256?: string; bytes: number }> {
+  try {
+    const bytes = await file.arrayBuffer();
+    if (!globalThis.crypto?.subtle) return { bytes: bytes.byteLength };
+    const hash = new Uint8Array(await crypto.subtle.digest('SHA-256', bytes));
+    return { sha256: Array.from(hash, (b) => b.toString(16).padStart(2, '0')).join(''), bytes: bytes.byteLength };
+  } catch {
+    return { bytes: file.size };
+  }
 }
 
 const DELIMITER_NAMES: Record<string, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
@@ -245,9 +258,9 @@ function buildPickers(t: TableSummary): void {
     el.yChoices.append(h('label', { class: 'check' }, y, ...columnLabel(c.name, c.numeric)));
     const x = h('input', { type: 'checkbox', name: 'x', value: c.name, checked: t.guess.x.includes(c.name) });
     el.xChoices.append(h('label', { class: 'check' }, x, ...columnLabel(c.name, c.numeric)));
-    if (c.numeric) {
+    if (c.numeric || c.timeLike) {
       el.time.append(h('option', { value: c.name, selected: c.name === t.guess.time },
-        c.timeLike ? c.name : `${c.name} (not increasing whole numbers)`));
+        c.timeLike ? c.name : `${c.name} (not increasing time labels)`));
     }
   }
   syncPickers();
@@ -308,6 +321,7 @@ function readModel(): ModelChoice | PlainError {
     y,
     x: xInputs().filter((x) => x.checked).map((x) => x.value),
     time: el.time.value === '' ? null : el.time.value,
+    dropMissing: el.dropMissing.checked,
     lag,
     intercept: el.intercept.checked,
     alternative,
@@ -355,7 +369,7 @@ function wire(): void {
     loadText(el.paste.value, 'the pasted text');
   });
   for (const s of [el.delimiter, el.decimal]) {
-    s.addEventListener('change', () => { if (data) loadText(data.text, data.source); });
+    s.addEventListener('change', () => { if (data) loadText(data.text, data.source, { sha256: data.sha256, bytes: data.bytes }); });
   }
 
   document.addEventListener('dragover', (e) => {

@@ -17,6 +17,10 @@ export interface DataSource extends ReadOptions {
   text: string;
   /** Shown in messages: the file name, 'the demo data' or 'the pasted text'. */
   source: string;
+  /** SHA-256 of the file's bytes (SubtleCrypto, computed in the page), when it could be computed. */
+  sha256?: string;
+  /** Size of the file in bytes. */
+  bytes?: number;
 }
 
 /** What the user chose for the model and the test. */
@@ -25,6 +29,8 @@ export interface ModelChoice {
   x: string[];
   /** Time column (not a regressor), or null. */
   time: string | null;
+  /** Drop rows with a missing value in a used column (they become gaps). */
+  dropMissing: boolean;
   lag: number;
   intercept: boolean;
   alternative: Alternative;
@@ -43,8 +49,10 @@ export interface ColumnInfo {
   name: string;
   /** Every cell is a number. */
   numeric: boolean;
-  /** Whole numbers, strictly increasing: can serve as the time column. */
+  /** Strictly increasing time labels (whole numbers, quarters, months, dates): can serve as the time column. */
   timeLike: boolean;
+  /** Cells read as missing values. */
+  missing?: number;
 }
 
 /** Summary of a parsed table for the column pickers. */

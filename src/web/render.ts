@@ -5,8 +5,8 @@
  */
 import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
 import { INTERCEPT_NAME } from '../model/design.js';
-import { capabilities, type ReportExtras } from './adapter.js';
-import { copyText, h, placeSvg, saveText } from './dom.js';
+import { capabilities, resolutionWords, timeIndexText, warningWords, type ReportExtras } from './adapter.js';
+import { copyText, h, placeSvg, saveText, symbolText } from './dom.js';
 import type { OptionalPart, PlainError } from './protocol.js';
 import { atNumericalLimit, formatBound, formatLevel, formatNumber, formatProbability, formatStatistic } from './format.js';
 
@@ -19,7 +19,7 @@ const ALTERNATIVE_WORDS = {
 const ZONE_WORDS: Record<BoundsZone['zone'], string> = {
   'reject-positive': 'd is below d_L: the bounds test rejects in favour of positive autocorrelation.',
   'inconclusive-positive': 'd lies between d_L and d_U: the bounds test is inconclusive.',
-  'no-evidence': 'd lies between d_U and 4 - d_U: the bounds test finds no evidence of autocorrelation.',
+  'no-evidence': 'd lies between d_U and 4 - d_U: the bounds test does not reject the null hypothesis of no autocorrelation.',
   'inconclusive-negative': 'd lies between 4 - d_U and 4 - d_L: the bounds test is inconclusive.',
   'reject-negative': 'd is above 4 - d_L: the bounds test rejects in favour of negative autocorrelation.',
 };
@@ -96,7 +96,7 @@ export function engineDescription(method: string): string {
     case 'imhof': return "Imhof's inversion of the characteristic function (Imhof 1961)";
     case 'pan': return "Pan's finite-range formula (Pan 1968; Farebrother 1980)";
     case 'eigenfree': return "Imhof's inversion through a log-determinant, without eigenvalues (Imhof 1961)";
-    case 'saddlepoint': return 'exact numerical inversion along a line through the saddlepoint (Daniels 1954)';
+    case 'saddlepoint': return "exact numerical inversion along the line through the saddlepoint (the saddlepoint of Daniels 1954 places the line; the result is the exact inversion, not Daniels's approximation)";
     default: return method;
   }
 }
@@ -108,9 +108,14 @@ function statisticCard(r: DwTestResult): HTMLElement {
     pair('observations n', String(r.n), 'n'),
     pair('columns of X, k', String(r.k), 'k', `(${names})`),
     pair('degrees of freedom n - k', String(r.m), 'm'),
-    pair('lag', String(r.lag), 'lag', r.gaps ? '(with gaps in time)' : undefined),
-    pair('null mean of d', formatStatistic(r.nullMean), 'null-mean'),
-    pair('null standard deviation', formatStatistic(Math.sqrt(r.nullVariance)), 'null-sd'),
+    pair('lag', String(r.lag), 'lag', r.lag === 4 ? "(Wallis's d\u2084)" : r.gaps ? '(with gaps in time)' : undefined),
+    pair('time index', timeIndexText(r), 'time-index'),
+    ...(r.droppedRows ? [pair('rows dropped', String(r.droppedRows.count), 'dropped-rows', `(data rows ${r.droppedRows.rows.slice(0, 20).join(', ')}${r.droppedRows.count > 20 ? ', ...' : ''})`)] : []),
+    // the null moments belong to d's exact distribution, which does not hold with a lagged dependent variable
+    ...(r.dynamic ? [] : [
+      pair('null mean of d', formatStatistic(r.nullMean), 'null-mean'),
+      pair('null standard deviation', formatStatistic(Math.sqrt(r.nullVariance)), 'null-sd'),
+    ]),
   ]));
 }
 
@@ -147,11 +152,11 @@ function boundsPanel(r: DwTestResult): HTMLElement {
   if (b) {
     panel.append(
       dl([
-        pair(`d_L (k' = ${b.kPrime}, level ${formatLevel(b.level)})`, formatStatistic(b.dL), 'dL'),
-        pair('d_U', formatStatistic(b.dU), 'dU'),
+        pair(h('span', {}, ...symbolText(`d_L (k' = ${b.kPrime}, level ${formatLevel(b.level)})`)), formatStatistic(b.dL), 'dL'),
+        pair(h('span', {}, ...symbolText('d_U')), formatStatistic(b.dU), 'dU'),
       ]),
-      h('p', { 'data-field': 'zone', 'data-zone': b.zone }, ZONE_WORDS[b.zone]),
-      h('p', { class: 'resolution', 'data-field': 'resolution' }, b.resolution),
+      h('p', { 'data-field': 'zone', 'data-zone': b.zone }, ...symbolText(ZONE_WORDS[b.zone])),
+      h('p', { class: 'resolution', 'data-field': 'resolution' }, ...symbolText(resolutionWords(b.resolution))),
     );
     return panel;
   }
@@ -159,7 +164,7 @@ function boundsPanel(r: DwTestResult): HTMLElement {
   if (!r.intercept) why = 'The model has no intercept, so the classical bounds d_L, d_U do not apply; the exact p-value does.';
   else if (r.lag > 1) why = `The classical bounds are for lag 1; at lag ${r.lag} only the exact p-value applies.`;
   else if (r.gaps) why = 'The time column has gaps, so the classical bounds do not apply; the exact p-value does.';
-  panel.append(h('p', { class: 'note', 'data-field': 'zone' }, why));
+  panel.append(h('p', { class: 'note', 'data-field': 'zone' }, ...symbolText(why)));
   return panel;
 }
 
@@ -212,8 +217,22 @@ function dynamicPanel(r: DwTestResult): HTMLElement | null {
       h('li', {}, hText),
       h('li', {}, `Breusch-Godfrey, order ${bg.order}: LM = ${formatStatistic(bg.lm, 3)}, p = ${formatProbability(bg.pChiSquare, { alpha: r.alpha })} (chi-square); `
         + `F = ${formatStatistic(bg.f, 3)}, p = ${formatProbability(bg.pF, { alpha: r.alpha })} (F with ${bg.df1} and ${bg.df2} df); asymptotic.`),
-      h('li', {}, `Residual on its own lag: t = ${formatStatistic(dy.residualT.t, 3)}, p = ${formatProbability(dy.residualT.pValue, { alpha: r.alpha })} (asymptotic).`),
+      h('li', {}, `Durbin's alternative test (t on the lagged residual): t = ${formatStatistic(dy.residualT.t, 3)}, p = ${formatProbability(dy.residualT.pValue, { alpha: r.alpha })} (asymptotic).`),
     ));
+}
+
+/** Breusch-Godfrey of order p and the residual autocorrelation, next to d (static model). */
+function serialPanel(r: DwTestResult): HTMLElement | null {
+  const bg = r.breuschGodfrey;
+  if (!bg) return null;
+  return h('section', { class: 'panel', id: 'serial-panel' },
+    h('h3', {}, `Breusch-Godfrey test of order ${bg.order} (asymptotic)`),
+    dl([
+      pair('LM statistic', formatStatistic(bg.lm, 3), 'bg-lm', `(chi-square, ${bg.order} df)`),
+      pair('p-value', formatProbability(bg.pChiSquare, { alpha: r.alpha }), 'bg-p'),
+      pair(h('span', {}, 'residual autocorrelation \u03c1\u0302'), formatStatistic(r.rhoHat, 3), 'rho-hat'),
+    ]),
+    h('p', { class: 'note' }, `At level ${formatLevel(r.alpha)} it ${bg.pChiSquare <= r.alpha ? 'rejects' : 'does not reject'} the null hypothesis of no autocorrelation up to order ${bg.order}.`));
 }
 
 function figurePanel(r: DwTestResult, extras: ReportExtras, failure?: PlainError): HTMLElement {
@@ -286,12 +305,21 @@ export function renderResult(r: DwTestResult, extras: ReportExtras, rho: number 
   const frag = document.createDocumentFragment();
   frag.append(verdict(r));
   if (r.warnings.length > 0) {
-    frag.append(h('ul', { class: 'warnings', 'aria-label': 'Notes on this result' }, ...r.warnings.map((w) => h('li', {}, w))));
+    frag.append(h('ul', { class: 'warnings', 'aria-label': 'Notes on this result' },
+      ...r.warnings.map((w) => h('li', { 'data-code': w.code }, ...symbolText(warningWords(w))))));
   }
   const dyn = dynamicPanel(r);
   if (dyn) frag.append(dyn);
-  frag.append(h('div', { class: 'cards' }, statisticCard(r), pValueCard(r), criticalCard(r)));
-  frag.append(boundsPanel(r));
+  if (r.dynamic) {
+    // d is not a valid test: its p-values, critical values and bounds zone are not shown
+    frag.append(h('div', { class: 'cards' }, statisticCard(r)),
+      h('p', { class: 'note', id: 'd-not-valid' }, 'The p-values, critical values and bounds of d are not shown: with a lagged dependent variable d is not a valid test (see the tests above).'));
+  } else {
+    frag.append(h('div', { class: 'cards' }, statisticCard(r), pValueCard(r), criticalCard(r)));
+    const serial = serialPanel(r);
+    if (serial) frag.append(serial);
+    frag.append(boundsPanel(r));
+  }
   const pow = powerPanel(r, extras, rho, failures.power);
   if (pow) frag.append(pow);
   frag.append(figurePanel(r, extras, failures.figure));

@@ -4,7 +4,7 @@
  * stage it is in before each step; the page shows that as progress and may end the worker to
  * cancel.
  */
-import { parseCsv, numericColumn, type CsvOptions, type DataTable } from '../data/csv.js';
+import { parseCsv, numericColumn, textColumn, type CsvOptions, type DataTable } from '../data/csv.js';
 import type { DwTestInput } from '../inference/dw-test.js';
 import { figureSvg, markdownReport, paragraphFor, powerAt, runTest, textReport, type ReportExtras } from './adapter.js';
 import { guessColumns, summarizeColumns } from './columns.js';
@@ -41,7 +41,7 @@ function inspect(id: number, data: DataSource): void {
     delimiter: table.delimiter,
     decimal: table.decimal,
     preview: table.rows.slice(0, 6),
-    guess: guessColumns(columns),
+    guess: guessColumns(table, columns),
   };
   post({ kind: 'inspected', id, table: summary });
 }
@@ -53,12 +53,23 @@ function compute(id: number, data: DataSource, model: ModelChoice): void {
 
   stage('Reading the columns');
   const table = readTable(data);
-  const y = numericColumn(table, model.y);
+  const missingAsNaN = model.dropMissing;
+  const y = numericColumn(table, model.y, { missingAsNaN });
   const x: Record<string, Float64Array> = {};
-  for (const name of model.x) x[name] = numericColumn(table, name);
-  const times = model.time === null ? undefined : numericColumn(table, model.time);
+  for (const name of model.x) x[name] = numericColumn(table, name, { missingAsNaN });
+  // the library's time-index rule decides what "detected" means, as on the command line
+  const ruled = guessColumns(table, summarizeColumns(table)).time;
+  const time = model.time === null ? undefined
+    : { labels: textColumn(table, model.time), name: model.time, detected: model.time === ruled, source: data.source };
+  const options: Record<string, string | boolean | string[]> = {
+    y: model.y, x: model.x, lag: String(model.lag), alternative: model.alternative, alpha: String(model.alpha), method: model.method,
+  };
+  if (model.time !== null) options.time = model.time;
+  if (!model.intercept) options['no-intercept'] = true;
+  if (model.dropMissing) options['drop-missing'] = true;
   const input: DwTestInput = {
-    y, x, times,
+    y, x, time, timeColumn: false, dropMissing: model.dropMissing,
+    provenance: { input: { name: data.source, sha256: data.sha256, bytes: data.bytes }, options },
     lag: model.lag,
     intercept: model.intercept,
     alternative: model.alternative,

@@ -15,7 +15,7 @@ export const boundsCommand: Command = {
     "K is k', the number of regressors OTHER THAN the intercept (the printed tables' convention):",
     "a regression of y on a constant and one variable has --k 1.",
     'alpha is the one-sided level of the test against positive autocorrelation: reject when d < d_L,',
-    'no evidence when d > d_U, inconclusive in between. Against negative autocorrelation use 4 - d_U',
+    'do not reject when d > d_U, inconclusive in between. Against negative autocorrelation use 4 - d_U',
     'and 4 - d_L; for a two-sided test at 5% ask for --alpha 0.025 (or give --d with --alternative two-sided).',
     'd_L and d_U are exact quantiles of the bounding distributions (Durbin & Watson 1950), n <= 5000.',
     'With --d the output also says in which zone d lies; the exact p-value for your own design',
@@ -57,7 +57,7 @@ export const boundsCommand: Command = {
       io.out(JSON.stringify({
         n, kPrime, k: kPrime + (intercept ? 1 : 0), alpha, intercept, m: b.m,
         dL: b.dL, dU: b.dU,
-        test: 'one-sided, against positive autocorrelation: reject when d < dL, no evidence when d > dU',
+        test: 'one-sided, against positive autocorrelation: reject when d < dL, do not reject when d > dU',
         negative: { lower: 4 - b.dU, upper: 4 - b.dL },
         ...(zone ? { d, alternative, zone } : {}),
       }, null, 2) + '\n');
@@ -67,7 +67,7 @@ export const boundsCommand: Command = {
     const lines = [
       `Durbin-Watson bounds, n = ${n}, k' = ${kPrime} regressor${kPrime === 1 ? '' : 's'} ${intercept ? 'besides the intercept' : '(model without intercept)'}, alpha = ${alpha} one-sided`,
       `  d_L = ${f(b.dL)}   d_U = ${f(b.dU)}`,
-      `  against positive autocorrelation: reject when d < ${f(b.dL)}, inconclusive from ${f(b.dL)} to ${f(b.dU)}, no evidence above ${f(b.dU)}`,
+      `  against positive autocorrelation: reject when d < ${f(b.dL)}, inconclusive from ${f(b.dL)} to ${f(b.dU)}, do not reject above ${f(b.dU)}`,
       `  against negative autocorrelation: reject when d > ${f(4 - b.dL)}, inconclusive from ${f(4 - b.dU)} to ${f(4 - b.dL)}`,
       '  exact quantiles of the bounding distributions (Durbin & Watson 1950); your own design\'s exact critical value lies between them',
     ];

@@ -2,7 +2,7 @@
 import { prepareProblem } from '../../inference/problem.js';
 import { checkAlpha } from '../../core/alternative.js';
 import { choiceOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, applyTimeRule, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 export const criticalCommand: Command = {
@@ -22,7 +22,8 @@ export const criticalCommand: Command = {
     const alpha = numberOption(values, 'alpha', 0.05) as number;
     checkAlpha(alpha);
     const table = loadTable(io, required(values, 'design', 'critical'), values);
-    const problem = prepareProblem(designColumns(table, values), table.rows.length, problemOptions(values, table));
+    const timed = applyTimeRule(io, table, values);
+    const problem = prepareProblem(designColumns(table, timed), table.rows.length, problemOptions(timed, table));
     const dist = problem.distribution;
     const lower = dist.quantile(alpha);
     const upper = dist.upperQuantile(alpha);

@@ -21,6 +21,7 @@ import { renderDensitySvg } from '../../report/svg.js';
 import { choiceOption } from '../args.js';
 import { REPORT_FORMATS, renderReport, type ReportFormat } from './test.js';
 import type { Command } from './command.js';
+import { describeInput } from '../shared.js';
 
 /**
  * Path of the bundled demo data (from the compiled module in dist/src/cli/commands, or from src/cli/commands).
@@ -111,7 +112,11 @@ export const demoCommand: Command = {
     const data = loadDemo(io.readText(path));
     const x = { spring_rain_mm: data.rain, june_temp_c: data.temp };
     const options = { times: data.year };
-    const result = exactDwTest({ y: data.y, x, ...options });
+    const provenance = {
+      input: { ...describeInput(io, path), name: 'docs/demo/apiary.csv' },
+      options: { y: 'yield_kg', x: 'spring_rain_mm,june_temp_c', time: 'year' },
+    };
+    const result = exactDwTest({ y: data.y, x, time: { labels: data.year, name: 'year' }, provenance });
     const svg = renderDensitySvg(result, prepareProblem(x, data.y.length, options).distribution);
     const contents: Record<(typeof DEMO_FILES)[number], string> = {
       'report.md': renderMarkdown(result),

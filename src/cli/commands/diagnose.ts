@@ -8,7 +8,7 @@ import { numericColumn } from '../../data/csv.js';
 import type { Alternative } from '../../core/alternative.js';
 import { dynamicModelCheck, serialCorrelationTests, type DynamicDiagnosis, type SerialTests } from '../../dynamic/serial-tests.js';
 import { choiceOption, integerOption, required } from '../args.js';
-import { CSV_OPTIONS, chooseRegressors, formatP, loadTable, TEXT_JSON_FORMAT } from '../shared.js';
+import { CSV_OPTIONS, applyTimeRule, chooseRegressors, formatP, frequencyOption, loadTable, timeColumn, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 function num(v: number): string {
@@ -55,7 +55,9 @@ export const diagnoseCommand: Command = {
     'bg-order': { type: 'string', value: 'P', help: 'order of the Breusch-Godfrey test (default 1; 4 for quarterly data)' },
     alternative: { type: 'string', value: 'ALT', help: "positive (default), negative or two-sided, for h and the t-test" },
     'no-intercept': { type: 'boolean', help: 'do not add an intercept (a constant column you supply still counts as one)' },
-    time: { type: 'string', value: 'COL', help: 'integer time column (not a regressor); lags are taken in time units' },
+    time: { type: 'string', value: 'COL', help: 'time column: integers, quarters (2015Q1), months (2015-01) or ISO dates; not a regressor; lags are taken in periods' },
+    'no-time': { type: 'boolean', help: 'no time index: do not take a time-like column as the time index' },
+    frequency: { type: 'string', value: 'F', help: 'frequency of the --time dates (inferred when omitted)' },
     ...CSV_OPTIONS,
     ...TEXT_JSON_FORMAT,
   },
@@ -69,8 +71,9 @@ export const diagnoseCommand: Command = {
     const table = loadTable(io, positionals[0], values);
     const yName = required(values, 'y', 'diagnose');
     const y = numericColumn(table, yName);
-    const x = chooseRegressors(table, values, yName);
-    const times = typeof values.time === 'string' ? numericColumn(table, values.time) : undefined;
+    const timed = applyTimeRule(io, table, values, yName);
+    const x = chooseRegressors(table, timed, yName);
+    const times = typeof timed.time === 'string' ? timeColumn(table, timed.time, frequencyOption(values)) : undefined;
     const declared = typeof values['lagged-dependent'] === 'string' ? values['lagged-dependent'] : undefined;
     const common = { y, x, intercept: !values['no-intercept'], order, alternative, times };
     const dyn = dynamicModelCheck({ ...common, laggedDependent: declared });

@@ -5,7 +5,7 @@ import { prepareProblem } from '../../inference/problem.js';
 import { powerForProblem, type PowerRoute } from '../../power/exact-power.js';
 import type { ErrorProcess } from '../../power/weights.js';
 import { choiceOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, applyTimeRule, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
@@ -126,8 +126,9 @@ export const powerCommand: Command = {
     const route = choiceOption<PowerRoute>(values, 'route', ['auto', 'dense', 'eigenfree'], 'auto');
     const rho = parseRhoList(typeof values.rho === 'string' ? values.rho : DEFAULT_RHO);
     const table = loadTable(io, required(values, 'design', 'power'), values);
-    const options = problemOptions(values, table);
-    const problem = prepareProblem(designColumns(table, values), table.rows.length, options);
+    const timed = applyTimeRule(io, table, values);
+    const options = problemOptions(timed, table);
+    const problem = prepareProblem(designColumns(table, timed), table.rows.length, options);
     const p = powerForProblem(problem, { alpha, rho, target, alternative, process, route, searchTarget, times: options.times });
     if (format === 'json') {
       const out: Record<string, unknown> = {

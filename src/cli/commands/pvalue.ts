@@ -1,11 +1,13 @@
 /** `exact-dw pvalue`: exact p-values of a given d (or of the d of given residuals) for a design. */
+import { inline } from '../../report/format.js';
+import { warningText } from '../../report/wording.js';
 import { DwError } from '../../errors.js';
 import { durbinWatson } from '../../core/difference.js';
 import { numericColumn } from '../../data/csv.js';
 import { prepareProblem } from '../../inference/problem.js';
 import { checkResiduals, pValuesFor } from '../../inference/dw-test.js';
 import { choiceOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, designColumns, formatP, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, applyTimeRule, designColumns, formatP, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
 
 export const pvalueCommand: Command = {
@@ -20,9 +22,10 @@ export const pvalueCommand: Command = {
     ...CSV_OPTIONS,
     ...TEXT_JSON_FORMAT,
   },
-  run({ values, io }) {
-    const format = choiceOption(values, 'format', ['text', 'json'] as const, 'text');
-    const table = loadTable(io, required(values, 'design', 'pvalue'), values);
+  run({ values: given, io }) {
+    const format = choiceOption(given, 'format', ['text', 'json'] as const, 'text');
+    const table = loadTable(io, required(given, 'design', 'pvalue'), given);
+    const values = applyTimeRule(io, table, given);
     const options = problemOptions(values, table);
     const x = designColumns(table, values);
     const n = table.rows.length;
@@ -45,7 +48,7 @@ export const pvalueCommand: Command = {
         throw new DwError('LENGTH_MISMATCH', `The residuals file has ${et.rows.length} rows but the design has ${n}.`, 'Use residuals from a fit on this same design.');
       }
       const checked = checkResiduals(problem, numericColumn(et, et.headers[0]));
-      for (const w of checked.warnings) io.err(`exact-dw: note: ${w}\n`);
+      for (const w of checked.warnings) io.err(`exact-dw: note: ${inline(warningText(w), 'text')}\n`);
       d = durbinWatson(checked.residuals, problem.pairs);
     }
     const p = pValuesFor(problem, d);

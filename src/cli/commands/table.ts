@@ -14,7 +14,7 @@ export const tableCommand: Command = {
   details: [
     "K is k', the number of regressors OTHER THAN the intercept (the printed tables' convention).",
     'alpha is the one-sided level of the test against positive autocorrelation (reject when d < d_L,',
-    'no evidence when d > d_U); for negative autocorrelation use 4 - d_U and 4 - d_L.',
+    'do not reject when d > d_U); for negative autocorrelation use 4 - d_U and 4 - d_L.',
     'Lists: single values, ranges A-B, ranges with a step A-B:S, joined by commas,',
     'e.g. --n 10,15,20-25 or --n 10-200:10; levels as fractions, e.g. --alpha 0.05,0.01.',
     `Cells with n < k' + 3 (k' + 2 without intercept) are left out. Limits: n <= ${MAX_BOUNDS_N}, about 30 s of computing.`,

@@ -7,7 +7,8 @@
  */
 import { resolve } from 'node:path';
 import { DwError } from '../../errors.js';
-import { numericColumn } from '../../data/csv.js';
+import { columnIndex, numericColumn, textColumn } from '../../data/csv.js';
+import { chooseTimeIndex } from '../../data/time-index.js';
 import { runExactDwTest, type Alternative, type DwTestResult } from '../../inference/dw-test.js';
 import type { DwProblem, ProblemOptions } from '../../inference/problem.js';
 import type { RegressorInput } from '../../model/design.js';
@@ -18,9 +19,9 @@ import { renderJson } from '../../report/json.js';
 import { paperParagraph } from '../../report/paragraph.js';
 import { citations } from '../../report/citations.js';
 import { renderDensitySvg } from '../../report/svg.js';
-import { choiceOption, integerOption, numberOption, required, type OptionSpecs, type OptionValues } from '../args.js';
+import { choiceOption, integerOption, listOption, numberOption, required, type OptionSpecs, type OptionValues } from '../args.js';
 import type { CliIo } from '../io.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, chooseRegressors, loadTable, problemOptions } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, chooseRegressors, describeInput, frequencyOption, loadTable, problemOptions } from '../shared.js';
 import type { Command } from './command.js';
 import { parseRhoList } from './power.js';
 import { PANEL_OPTIONS, panelFromOptions } from '../panel-options.js';
@@ -37,6 +38,7 @@ export const REPORT_OPTIONS: OptionSpecs = {
   bib: { type: 'string', value: 'FILE', help: 'also write the BibTeX entries to FILE' },
   plot: { type: 'string', value: 'FILE.svg', help: 'also write an SVG figure of the exact null density of d' },
   out: { type: 'string', value: 'FILE', help: 'write the report to FILE instead of the screen' },
+  fragment: { type: 'boolean', help: 'with --format latex: a fragment to \\input into a paper (no preamble, no document environment)' },
   force: { type: 'boolean', help: 'replace files given to --out, --plot or --bib that already exist' },
 };
 
@@ -48,10 +50,10 @@ export const REPORT_OPTIONS: OptionSpecs = {
  * renderReport(exactDwTest({ y, x }), 'markdown').split('\n')[0]; // "# Exact Durbin–Watson test"
  * ```
  */
-export function renderReport(result: DwTestResult, format: ReportFormat): string {
+export function renderReport(result: DwTestResult, format: ReportFormat, fragment = false): string {
   switch (format) {
     case 'markdown': return renderMarkdown(result);
-    case 'latex': return renderLatex(result);
+    case 'latex': return renderLatex(result, { standalone: !fragment });
     case 'json': return renderJson(result);
     default: return renderText(result);
   }
@@ -65,14 +67,14 @@ export function renderReport(result: DwTestResult, format: ReportFormat): string
  * mainOutput(result, 'latex', true, true); // the LaTeX paragraph, then its BibTeX entries
  * ```
  */
-export function mainOutput(result: DwTestResult, format: ReportFormat, paragraph: boolean, cite: boolean): string {
+export function mainOutput(result: DwTestResult, format: ReportFormat, paragraph: boolean, cite: boolean, fragment = false): string {
   const bib = cite ? citations(result) : '';
   if (format === 'json') {
     const obj = paragraph ? { paragraph: paperParagraph(result, 'text').trim() } : JSON.parse(renderJson(result));
     if (cite) obj.bibtex = bib;
     return JSON.stringify(obj, null, 2) + '\n';
   }
-  const body = paragraph ? paperParagraph(result, format) : renderReport(result, format);
+  const body = paragraph ? paperParagraph(result, format) : renderReport(result, format, fragment);
   if (!cite) return body;
   if (format === 'markdown') return `${body}\n\`\`\`bibtex\n${bib}\`\`\`\n`;
   if (format === 'latex') return `${body}\n% ---- BibTeX entries for the methods used (save them as a .bib file) ----\n${bib}`;
@@ -134,7 +136,10 @@ export function outputFiles(values: OptionValues, io: CliIo): OutputFiles {
  */
 export function writeOutputs(io: CliIo, result: DwTestResult, values: OptionValues, files: OutputFiles, problem: () => DwProblem): void {
   const format = choiceOption<ReportFormat>(values, 'format', REPORT_FORMATS, 'text');
-  const main = mainOutput(result, format, values.paragraph === true, values.cite === true);
+  if (values.fragment === true && format !== 'latex') {
+    throw new DwError('OPTION_CONFLICT', `--fragment gives a LaTeX fragment, but the format is ${format}.`, 'Add --format latex, or leave --fragment out.');
+  }
+  const main = mainOutput(result, format, values.paragraph === true, values.cite === true, values.fragment === true);
   const svg = files.plot !== undefined ? renderDensitySvg(result, problem().distribution) : undefined;
   const bib = files.bib !== undefined ? citations(result) : undefined;
   if (files.out !== undefined) {
@@ -153,6 +158,44 @@ export function writeOutputs(io: CliIo, result: DwTestResult, values: OptionValu
   }
 }
 
+/**
+ * Run `f`; a missing value it refuses gets the command-line option that drops such rows added to
+ * the hint (the library's hint names no option).
+ *
+ * @example
+ * ```ts
+ * withMissingHint(() => numericColumn(table, 'y')); // CELL_EMPTY: "... Or add --drop-missing ..."
+ * ```
+ */
+export function withMissingHint<T>(f: () => T): T {
+  try {
+    return f();
+  } catch (err) {
+    if (err instanceof DwError && err.code === 'CELL_EMPTY' && !/blank\.$/.test(err.message)) {
+      throw new DwError(err.code, err.message, `${err.hint} Add --drop-missing to drop them; they are listed in the report.`, err.detail);
+    }
+    throw err;
+  }
+}
+
+/**
+ * The options of a run as given, for the reproducibility record (file names of outputs left out).
+ *
+ * @example
+ * ```ts
+ * recordedOptions({ y: 'sales', lag: '4', out: 'r.md' }); // { y: 'sales', lag: '4' }
+ * ```
+ */
+export function recordedOptions(values: OptionValues): Record<string, string | boolean | string[]> {
+  const out: Record<string, string | boolean | string[]> = {};
+  for (const k of Object.keys(values).sort()) {
+    if (['out', 'plot', 'bib', 'force'].includes(k)) continue;
+    const v = values[k];
+    if (v !== undefined) out[k] = v as string | boolean | string[];
+  }
+  return out;
+}
+
 export const testCommand: Command = {
   name: 'test',
   summary: 'fit y on its regressors and run the exact Durbin-Watson test',
@@ -163,6 +206,9 @@ export const testCommand: Command = {
     '--paragraph prints a paragraph for a paper instead; --cite adds BibTeX for the methods used;',
     '--plot writes a figure of the exact null density of d. Existing files are never replaced',
     'unless you add --force.',
+    'Without --time, a column named like a time index (year, quarter, month, date, period, ...) or',
+    'holding quarter, month or date labels is taken as the time index (the report says so);',
+    '--no-time turns this off. --drop-missing drops rows with missing values and lists them.',
   ].join('\n'),
   positionals: 1,
   options: {
@@ -173,7 +219,8 @@ export const testCommand: Command = {
     power: { type: 'string', value: 'RHOS', help: 'also report the exact power against AR(1) errors at these rho (e.g. 0.2,0.4,0.6 or 0.1:0.9:0.1)' },
     target: { type: 'string', value: 'P', help: 'with --power: report the smallest rho whose power reaches P (default 0.8)' },
     'lagged-dependent': { type: 'string', value: 'COL', help: "the regressor that is y lagged one period (detected when omitted); d is then not valid and Durbin's h and Breusch-Godfrey are reported" },
-    'bg-order': { type: 'string', value: 'P', help: 'order of the Breusch-Godfrey test for a dynamic model (default 1)' },
+    'bg-order': { type: 'string', value: 'P', help: 'order p of the Breusch-Godfrey test reported next to d, or instead of it for a dynamic model (default 1; 4 for quarterly data)' },
+    'drop-missing': { type: 'boolean', help: 'drop the rows with a missing value in a column of the model (listed in the report; they become gaps in time)' },
     ...MODEL_OPTIONS,
     ...PANEL_OPTIONS,
     ...CSV_OPTIONS,
@@ -189,18 +236,41 @@ export const testCommand: Command = {
     const alpha = numberOption(values, 'alpha', 0.05) as number;
     const table = loadTable(io, positionals[0], values);
     const yName = required(values, 'y', 'test');
-    const y = numericColumn(table, yName);
-    const regressors = chooseRegressors(table, values, yName);
-    const panel = panelFromOptions(values, table, regressors);
-    const x: RegressorInput = regressors;
-    // a panel's times restart in each entity: they go with the panel, not with the single-series options
-    const options: ProblemOptions = problemOptions(panel ? { ...values, time: undefined } : values, table);
+    const noTime = values['no-time'] === true;
+    if (noTime && typeof values.time === 'string') {
+      throw new DwError('OPTION_CONFLICT', '--time names a time column and --no-time asks for none.', 'Give one of them.');
+    }
+    const frequency = frequencyOption(values);
+    const named = typeof values.time === 'string' ? values.time : noTime ? false : undefined;
+    if (typeof named === 'string') columnIndex(table, named);
+    // the library's time-index rule, on every column of the file (src/data/time-index.ts)
+    const choice = chooseTimeIndex(table.headers.map((h) => ({ name: h, cells: textColumn(table, h) })),
+      { named, y: yName, listed: listOption(values, 'x') });
+    const timeName = choice.column;
+    const drop = values['drop-missing'] === true;
+    if (drop && values.panel !== undefined) {
+      throw new DwError('OPTION_CONFLICT', '--drop-missing cannot be combined with --panel: a pooled panel needs every row of every entity.',
+        'Remove the rows with missing values from the file, or test the entities one by one with batch.');
+    }
+    const { y, x } = withMissingHint(() => ({
+      y: numericColumn(table, yName, { missingAsNaN: drop }),
+      x: chooseRegressors(table, { ...values, time: timeName ?? undefined }, yName, drop),
+    }));
+    // a panel's times restart in each entity: they go with the panel, not with the single-series time index
+    const panel = panelFromOptions(values, table, x);
+    const time = timeName !== null && panel === undefined
+      ? { labels: textColumn(table, timeName), name: timeName, frequency, detected: choice.how === 'detected', source: table.source }
+      : undefined;
+    const options: ProblemOptions = problemOptions({ ...values, time: undefined });
     const laggedDependent = typeof values['lagged-dependent'] === 'string' ? values['lagged-dependent'] : undefined;
     const bgOrder = integerOption(values, 'bg-order', 1);
     const power = typeof values.power === 'string'
       ? { rho: parseRhoList(values.power), target: numberOption(values, 'target', 0.8) as number }
       : undefined;
-    const { result, problem } = runExactDwTest({ y, x, alternative, alpha, ...options, laggedDependent, bgOrder, power, panel });
+    const provenance = { input: describeInput(io, positionals[0]), options: recordedOptions(values) };
+    const { result, problem } = withMissingHint(() => runExactDwTest({
+      y, x, alternative, alpha, ...options, time, timeColumn: false, dropMissing: drop, laggedDependent, bgOrder, power, panel, provenance,
+    }));
     // the figure needs the null distribution itself: rebuild it from the same design and options
     writeOutputs(io, result, values, files, () => problem);
     return 0;
