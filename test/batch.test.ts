@@ -137,8 +137,30 @@ describe('exactDwBatch', () => {
     const e = b.groups.find((x) => x.group === 'e')!;
     expect(e.error?.code).toBe('TIME_INVALID');
     // e starts after the 4 x 20 rows of a..d: its 2nd and 3rd rows are data rows 82 and 83
-    expect(e.error?.message).toBe("The time 2 appears twice in this group, at data rows 82 and 83.");
+    expect(e.error?.message).toBe("The time 2 appears twice, at data row 82, column 'week' of 'shops.csv' and row 83.");
     expect(b.groups.filter((x) => x.error).map((x) => x.group)).toEqual(['e', 'g']);
+  });
+
+  it('quarter labels as the time of each group give the same numbers as their period numbers (gaps honoured)', () => {
+    // the same groups twice: once with integer periods, once with the quarter labels of those periods
+    const rows = ['g,t,q,y,x'];
+    let seed = 7;
+    const rnd = () => { seed = (seed * 16807) % 2147483647; return seed / 2147483647 - 0.5; };
+    for (const g of ['a', 'b']) {
+      for (let t = 0; t < 24; t++) {
+        if (g === 'b' && (t === 5 || t === 17)) continue; // two missing quarters in b
+        rows.push(`${g},${t},${2000 + Math.floor(t / 4)}Q${(t % 4) + 1},${(rnd() + 0.1 * t).toFixed(6)},${rnd().toFixed(6)}`);
+      }
+    }
+    const table = parseCsv(rows.join('\n'));
+    const byInt = exactDwBatch({ table, by: 'g', y: 'y', x: ['x'], time: 't' });
+    const byQuarter = exactDwBatch({ table, by: 'g', y: 'y', x: ['x'], time: 'q' });
+    expect(byQuarter.groups.map((r) => r.error)).toEqual([null, null]);
+    expect(byQuarter.groups.map((r) => r.d)).toEqual(byInt.groups.map((r) => r.d));
+    expect(byQuarter.groups.map((r) => r.pValue)).toEqual(byInt.groups.map((r) => r.pValue));
+    // and the gaps matter: b without its times is another operator
+    const noTime = exactDwBatch({ table, by: 'g', y: 'y', x: ['x', 't'].slice(0, 1) });
+    expect(noTime.groups[1].d).not.toBe(byQuarter.groups[1].d);
   });
 
   it('Holm-adjusted decisions use the adjusted p-values over the groups tested', () => {

@@ -15,6 +15,7 @@ import { adjustPValues, ADJUSTMENTS, type Adjustment } from './adjust.js';
 import { DesignCache } from './shared-design.js';
 import { seriesAnswer } from './group-test.js';
 import type { BatchNote, DwWarning } from '../inference/warnings.js';
+import { parseTimeLabels, type TimeFrequency } from '../data/time-index.js';
 
 /** A cell of a column given to {@link exactDwBatch} as values (null, undefined, '' or NaN are missing). */
 export type BatchCell = number | string | null | undefined;
@@ -31,8 +32,13 @@ export interface BatchInput {
   y: string;
   /** The regressors (default: every other column that holds numbers, except `by`, `y` and `time`). */
   x?: string[];
-  /** Integer time column (within each group strictly increasing; gaps are honoured). */
+  /**
+   * Time column (within each group strictly increasing; gaps are honoured): whole numbers,
+   * quarters (2015Q1, 2015-Q1), months (2015-07) or ISO dates, as in src/data/time-index.ts.
+   */
   time?: string;
+  /** Frequency of ISO-date labels, instead of the one inferred for each group. */
+  frequency?: TimeFrequency;
   /** Adjust the p-values over the family of groups tested (default none). */
   adjust?: Adjustment;
   /** Alternative (default `positive`). */
@@ -235,23 +241,6 @@ export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y
   return { by: input.by, y: input.y, x, time: input.time ?? null };
 }
 
-/** The times of one group: whole numbers, strictly increasing; errors name the file's data rows. */
-function checkGroupTimes(table: DataTable, rows: Int32Array, column: string, times: Float64Array): void {
-  const where = (i: number) => `data row ${rows[i] + 1}, column '${column}' of ${table.source}`;
-  for (let i = 0; i < times.length; i++) {
-    const detail = { file: table.source, row: rows[i] + 1, column, value: String(times[i]) };
-    if (!Number.isSafeInteger(times[i])) {
-      throw new DwError('TIME_INVALID', `The time ${times[i]} at ${where(i)} is not a whole number.`, 'The time column must hold integers such as years or week numbers.', detail);
-    }
-    if (i > 0 && times[i] === times[i - 1]) {
-      throw new DwError('TIME_INVALID', `The time ${times[i]} appears twice in this group, at data rows ${rows[i - 1] + 1} and ${rows[i] + 1}.`, 'Each period may appear once per group: remove or merge the duplicated row.', detail);
-    }
-    if (i > 0 && times[i] < times[i - 1]) {
-      throw new DwError('TIME_INVALID', `The times of this group decrease at ${where(i)}: ${times[i]} comes after ${times[i - 1]} (data row ${rows[i - 1] + 1}).`, 'Sort the rows of each group by time (oldest first).', detail);
-    }
-  }
-}
-
 function groupError(err: unknown): BatchGroupError {
   if (isDwError(err)) return { code: err.code, message: err.message, hint: err.hint };
   throw err;
@@ -291,14 +280,17 @@ export function testGroups(
       const y = new Float64Array(n);
       const x: Record<string, Float64Array> = {};
       for (const h of columns.x) x[h] = new Float64Array(n);
-      const times = jt >= 0 ? new Float64Array(n) : undefined;
       for (let i = 0; i < n; i++) {
         const cells = table.rows[rows[i]];
         y[i] = parseCell(table, rows[i], columns.y, cells[jy]);
         for (let c = 0; c < jx.length; c++) x[columns.x[c]][i] = parseCell(table, rows[i], columns.x[c], cells[jx[c]]);
-        if (times) times[i] = parseCell(table, rows[i], columns.time!, cells[jt]);
       }
-      if (times) checkGroupTimes(table, rows, columns.time!, times);
+      // the time labels of this group (whole numbers, quarters, months or ISO dates: src/data/time-index.ts)
+      const times = jt >= 0
+        ? parseTimeLabels(Array.from(rows, (r) => table.rows[r][jt]), {
+          column: columns.time!, source: table.source, rows: Array.from(rows, (r) => r + 1), frequency: input.frequency,
+        }).periods
+        : undefined;
       const { id, reuse } = cache.lookup(x, n, times);
       const quick = input.critical === true ? null : seriesAnswer(y, reuse, input.alternative ?? 'positive', input.alpha ?? 0.05, times, () => cache.ceiling(id, reuse));
       if (quick) {

@@ -11,7 +11,7 @@ import type { Alternative } from '../../core/alternative.js';
 import { ADJUSTMENTS, type Adjustment } from '../../batch/adjust.js';
 import { BATCH_FORMATS, renderBatch, type BatchFormat } from '../../batch/render.js';
 import { choiceOption, integerOption, listOption, methodOption, numberOption, required } from '../args.js';
-import { CSV_OPTIONS, MODEL_OPTIONS, csvOptionsOf } from '../shared.js';
+import { CSV_OPTIONS, MODEL_OPTIONS, csvOptionsOf, frequencyOption } from '../shared.js';
 import { THREAD_MIN_ROWS, runBatch } from '../batch-pool.js';
 import type { CliIo } from '../io.js';
 import type { Command } from './command.js';
@@ -51,8 +51,8 @@ export const batchCommand: Command = {
     'test there. Groups with the same design share one exact null distribution (this changes no',
     'number). --adjust holm controls the family-wise error rate (Holm 1979), --adjust bh the false',
     'discovery rate (Benjamini-Hochberg 1995); decisions then use the adjusted p-values. A group that',
-    'cannot be tested gets its error code in the table and the others go on. --time takes integer',
-    'times (strictly increasing within each group; gaps are honoured).',
+    'cannot be tested gets its error code in the table and the others go on. --time takes whole',
+    'numbers, quarters (2015Q1), months (2015-07) or ISO dates, increasing within each group; gaps are honoured.',
   ].join('\n'),
   positionals: 1,
   options: {
@@ -95,7 +95,7 @@ export const batchCommand: Command = {
     const text = io.readText(path);
     const progress = progressLine(io);
     const batch = await runBatch(text, csvOptionsOf(values, path), {
-      by, y, x: listOption(values, 'x'), time, adjust, alternative, alpha,
+      by, y, x: listOption(values, 'x'), time, frequency: frequencyOption(values), adjust, alternative, alpha,
       intercept: !values['no-intercept'], lag, method: methodOption(values), critical: values.critical === true,
     }, workers, progress.update);
     progress.end();
