@@ -168,7 +168,7 @@ export function operatorChains(a: BandMatrix): OperatorChains | null {
  * The chains of A when A is moreover a union of path-graph Laplacians (off-diagonal entries -1, the
  * diagonal counting them), whose eigenpairs are known in closed form; else null.
  */
-function pathChains(a: BandMatrix): OperatorChains | null {
+export function pathChains(a: BandMatrix): OperatorChains | null {
   const ch = operatorChains(a);
   if (ch === null) return null;
   const { order, starts, link } = ch;

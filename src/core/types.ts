@@ -10,7 +10,7 @@
  * eigen-free log-determinant route, and the inversion on a line through the saddlepoint (for small
  * tails with relative accuracy, any spectrum).
  */
-export type EngineName = 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint';
+export type EngineName = 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint' | 'dct';
 
 /** Engine choice offered to callers: a named engine, or `auto` to let the library choose. */
 export type MethodChoice = 'auto' | EngineName;
