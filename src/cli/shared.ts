@@ -30,7 +30,7 @@ export const MODEL_OPTIONS: OptionSpecs = {
   'no-intercept': { type: 'boolean', help: 'do not add an intercept (a constant column you supply still counts as one)' },
   lag: { type: 'string', value: 'J', help: 'difference at lag J (default 1; 4 for quarterly data, Wallis 1972)' },
   time: { type: 'string', value: 'COL', help: 'integer time column (years, quarter numbers); not a regressor; gaps are honoured' },
-  method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan, eigenfree or saddlepoint' },
+  method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan, eigenfree, saddlepoint or dct' },
 };
 
 /**

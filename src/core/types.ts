@@ -69,6 +69,12 @@ export interface CharacteristicForm {
   /** max |lambda_j| (sets the natural scale of u). */
   maxAbsLambda: number;
   /**
+   * When set, the truncation bound built from (m, sumLogAbsLambda) is only vouched for at cut
+   * points U up to this value (a floored sumLogAbsLambda, as in the eigen-free engine); beyond it
+   * `integrateImhof` places the cut by the convexity bound of src/core/convexity-cut.ts instead.
+   */
+  truncationValidBelow?: number;
+  /**
    * Write theta(u) into out[0] and log rho(u) into out[1]. theta must be the continuous branch
    * (the sum of principal arctangents), never reduced modulo 2 pi.
    */

@@ -35,6 +35,7 @@ import { DwError } from '../errors.js';
 import { pathChains } from '../core/fast-spectrum.js';
 import { dctPlan, type DctPlan } from '../core/dct.js';
 import { adaptiveIntegrate } from '../core/quadrature.js';
+import { convexityCut, probabilityTailBound } from '../core/convexity-cut.js';
 import { exactTail } from '../core/exact-tail.js';
 import { PivotProduct, smallLogDet } from './complex-ldl.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis, Tail, TailProbability } from '../core/types.js';
@@ -348,22 +349,6 @@ export interface DctOptions {
   maxPanels?: number;
 }
 
-/** Where to cut: the first U = sigma 2^i whose tail bound is below `target`. */
-function findCut(logRho: (u: number) => number, sigma: number, target: number, bound: (u: number, lr: number, slope: number) => number): { upper: number; truncation: number } {
-  let u = sigma;
-  let prev = logRho(u / 2);
-  for (let i = 0; i < 2100; i++) {
-    const lr = logRho(u);
-    // secant slope over [u/2, u], less a margin for the rounding of the two sums
-    const slope = (lr - prev - 1e-9 * (1 + Math.abs(lr))) / Math.LN2;
-    const t = slope > 0 ? bound(u, lr, slope) : Infinity;
-    if (t <= target || !(2 * u < 1e300)) return { upper: u, truncation: t };
-    prev = lr;
-    u *= 2;
-  }
-  return { upper: u, truncation: Infinity };
-}
-
 /** Break points 0, sigma, 2 sigma, 4 sigma, ... up to `upper`. */
 function scaledBreaks(upper: number, sigma: number): number[] {
   const breaks = [0];
@@ -388,7 +373,7 @@ export function integrateDct(form: DctForm, options: DctOptions = {}): { p: numb
   const out = new Float64Array(2);
   let evaluations = 0;
   const logRho = (u: number): number => { evaluations++; form.evaluate(u, out); return out[1]; };
-  const cut = findCut(logRho, form.scale, tol / 4, (_u, lr, slope) => Math.exp(-lr) / (Math.PI * slope));
+  const cut = convexityCut(logRho, form.scale, tol / 4, probabilityTailBound);
   const integrand = (u: number): number => {
     if (u === 0) return 0.5 * form.sumLambda;
     form.evaluate(u, out);
@@ -447,7 +432,7 @@ export function dctDensity(a: BandMatrix, basis: ColumnBasis, c: number, options
   const out = new Float64Array(4);
   const o2 = new Float64Array(2);
   const logRho = (u: number): number => { form.evaluate(u, o2); return o2[1]; };
-  const cut = findCut(logRho, form.scale, tol / 4, (u, lr, slope) => slope > 1 ? (m * u * Math.exp(-lr)) / (2 * Math.PI * (slope - 1)) : Infinity);
+  const cut = convexityCut(logRho, form.scale, tol / 4, (u, lr, slope) => slope > 1 ? (m * u * Math.exp(-lr)) / (2 * Math.PI * (slope - 1)) : Infinity);
   const f = (u: number): number => {
     if (u === 0) return 0.5 * m; // limit: Im L_c / u -> m, Re L_c -> 0
     form.evaluateWithDerivative(u, out);

@@ -136,6 +136,7 @@ export function engineWords(method: string): string {
   if (method === 'imhof') return `Imhof's numerical inversion of the characteristic function, on the eigenvalues of the design ${cite('imhof-1961')}`;
   if (method === 'pan') return `Pan's finite-range formula ${cite('pan-1968', 'farebrother-1980')}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of the characteristic function, evaluated through a log-determinant without eigenvalues ${cite('imhof-1961')}`;
+  if (method === 'dct') return `Imhof's numerical inversion of the characteristic function, evaluated in the closed-form (DCT) eigenbasis of the difference operator ${cite('imhof-1961')}`;
   if (method === 'saddlepoint') return `exact numerical inversion of the distribution function along a line through the saddlepoint ${cite('daniels-1954')}, on the eigenvalues of the design (relative accuracy in small tails)`;
   return plain(method);
 }
