@@ -38,6 +38,15 @@ describe('DCT-II of any length', () => {
         s *= Math.sqrt((j === 0 ? 1 : 2) / L);
         expect(Math.abs(out[j] - s)).toBeLessThan(1e-13 * Math.max(1, norm));
       }
+      // two at once (one complex FFT): the same numbers as one at a time
+      const x2 = Float64Array.from(x, (v, t) => v * Math.cos(t) + 1);
+      const o1 = new Float64Array(L), o2 = new Float64Array(L), o2s = new Float64Array(L);
+      dctPlan(L).transform2(x, x2, o1, o2);
+      dctPlan(L).transform(x2, o2s);
+      for (let j = 0; j < L; j++) {
+        expect(Math.abs(o1[j] - out[j])).toBeLessThan(1e-13 * Math.max(1, norm));
+        expect(Math.abs(o2[j] - o2s[j])).toBeLessThan(1e-13 * Math.max(1, 2 * norm + Math.sqrt(L)));
+      }
       // orthonormal: ||V'x|| = ||x|| (Parseval)
       let no = 0;
       for (const v of out) no += v * v;

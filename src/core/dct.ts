@@ -20,6 +20,8 @@ export interface DctPlan {
   length: number;
   /** Write the orthonormal DCT-II of x (length L) into out (length L). x is not changed. */
   transform(x: Float64Array, out: Float64Array): void;
+  /** Two transforms for the price of about one (one complex FFT of x1 + i x2). */
+  transform2(x1: Float64Array, x2: Float64Array, out1: Float64Array, out2: Float64Array): void;
 }
 
 const DIRECT_MAX = 32;
@@ -58,6 +60,20 @@ export function dctPlan(L: number): DctPlan {
       fft(re, im);
       for (let j = 0; j < L; j++) out[j] = cr[j] * re[j] - ci[j] * im[j];
     },
+    transform2(x1, x2, out1, out2) {
+      // z = v1 + i v2; V1_j = (Z_j + conj Z_{L-j}) / 2, V2_j = (Z_j - conj Z_{L-j}) / (2i)
+      for (let t = 0; t < half; t++) { re[t] = x1[2 * t]; im[t] = x2[2 * t]; }
+      for (let t = 0; 2 * t + 1 < L; t++) { re[L - 1 - t] = x1[2 * t + 1]; im[L - 1 - t] = x2[2 * t + 1]; }
+      fft(re, im);
+      for (let j = 0; j < L; j++) {
+        const r = j === 0 ? 0 : L - j;
+        const zr = re[j], zi = im[j], wr = re[r], wi = -im[r]; // Z_j and conj Z_{L-j}
+        const ar = 0.5 * (zr + wr), ai = 0.5 * (zi + wi);
+        const br = 0.5 * (zi - wi), bi = -0.5 * (zr - wr);
+        out1[j] = cr[j] * ar - ci[j] * ai;
+        out2[j] = cr[j] * br - ci[j] * bi;
+      }
+    },
   };
 }
 
@@ -65,8 +81,9 @@ function directPlan(L: number): DctPlan {
   const period = 4 * L;
   const table = new Float64Array(period);
   for (let r = 0; r < period; r++) table[r] = Math.cos((Math.PI * r) / (2 * L));
-  return {
+  const plan: DctPlan = {
     length: L,
+    transform2(x1, x2, out1, out2) { plan.transform(x1, out1); plan.transform(x2, out2); },
     transform(x, out) {
       for (let j = 0; j < L; j++) {
         // angle index j (2t + 1) mod 4L
@@ -82,6 +99,7 @@ function directPlan(L: number): DctPlan {
       }
     },
   };
+  return plan;
 }
 
 /** In-place forward complex FFT (sum x_t exp(-2 pi i j t / N)) of one length. */
@@ -93,16 +111,22 @@ function fftPlan(N: number): Fft {
   return f === null ? bluestein(N) : mixedRadix(N, f);
 }
 
-/** The factors of N in {4, 2, 3, 5, 7, ..., 31} (fours first), or null if N has a larger prime factor. */
+/**
+ * The factors of N (fours first, then primes ascending) when every prime factor is at most
+ * MAX_RADIX (a generic radix-p pass costs O(N p)), else null (Bluestein then).
+ */
 function smallFactors(N: number): number[] | null {
   const out: number[] = [];
   let r = N;
   while (r % 4 === 0) { out.push(4); r /= 4; }
-  for (const p of [2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31]) {
+  for (let p = 2; p <= MAX_RADIX && r > 1; p++) {
     while (r % p === 0) { out.push(p); r /= p; }
   }
   return r === 1 ? out : null;
 }
+
+/** Largest prime handled by a generic radix pass. */
+const MAX_RADIX = 211;
 
 /**
  * Mixed-radix decimation in time (Cooley & Tukey 1965; any product of small factors), out of place
