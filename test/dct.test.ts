@@ -89,8 +89,20 @@ describe('DCT route against Imhof on the structured spectrum and the eigen-free 
     const r = dist.lowerTail(1.95);
     expect(r.method).toBe('dct');
     expect(r.reason).toMatch(/DCT eigenbasis/);
-    const f = dist.pdf(1.95);
-    expect(dist.source.hasSpectrum()).toBe(false);
+    // here every evaluation takes the moment series (u (h + |c0 - c|) <= 1/2 up to the cut):
+    // against Imhof's integral on the structured spectrum, both tails, within the two bounds
+    const src = dist.source;
+    for (const c of [1.9, 1.95, 2.03, 2.1]) {
+      for (const tail of ['lower', 'upper'] as const) {
+        const a = tailProbability(src, c, tail, { method: 'dct' });
+        const b = tailProbability(src, c, tail, { method: 'imhof' });
+        expect(Math.abs(a.p - b.p)).toBeLessThanOrEqual(a.errorBound + b.errorBound);
+        expect(Math.abs(a.p - b.p)).toBeLessThan(1e-11);
+      }
+    }
+    const fresh = prepareProblem(design(n, 5), n).distribution;
+    const f = fresh.pdf(1.95);
+    expect(fresh.source.hasSpectrum()).toBe(false);
     // against the density of the structured spectrum (Imhof's derivative formula)
     expect(Math.abs(f - imhofDensity(dist.spectrum, 1.95).value)).toBeLessThan(1e-8);
   });

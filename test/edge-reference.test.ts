@@ -15,13 +15,15 @@ import { tailProbability } from '../src/engines/choose.js';
 import { quantileTolerance } from '../src/distribution/null-distribution.js';
 import { isDwError } from '../src/errors.js';
 import type { MethodChoice } from '../src/core/types.js';
+import { exactDwTest, pValuesFor } from '../src/inference/dw-test.js';
+import { renderJson } from '../src/report/json.js';
 
 interface Point { c: string; lower: string; upper: string }
 interface Case { id: string; n: number; trend: boolean; nu: string[]; points: Point[]; quantile05: string; jumpAboveNu1?: string }
 const ref = JSON.parse(readFileSync(join(__dirname, 'ref', 'edge-reference.json'), 'utf8')) as { cases: Case[] };
 
 function problem(c: Case, method: MethodChoice = 'auto') {
-  const x = c.trend ? { t: Array.from({ length: c.n }, (_, i) => i + 1) } : {};
+  const x: Record<string, number[]> = c.trend ? { t: Array.from({ length: c.n }, (_, i) => i + 1) } : {};
   return prepareProblem(x, c.n, { method });
 }
 
@@ -75,5 +77,29 @@ describe('edge reference (mpmath, test/ref/edge_reference.py)', () => {
         expect(code).toBe('QUANTILE_UNREACHABLE');
       }
     }
+  });
+
+  it('per-tail bounds: errorBoundPositive covers pPositive and errorBoundNegative covers pNegative (m = 2 and m = 3 references)', () => {
+    for (const cs of ref.cases) {
+      const pr = problem(cs);
+      for (const pt of cs.points) {
+        const c = Number(pt.c);
+        if (!(c >= 0 && c <= 4)) continue;
+        const pv = pValuesFor(pr, c);
+        expect(Math.abs(pv.pPositive - Number(pt.lower))).toBeLessThanOrEqual(pv.errorBoundPositive + 1e-16);
+        expect(Math.abs(pv.pNegative - Number(pt.upper))).toBeLessThanOrEqual(pv.errorBoundNegative + 1e-16);
+        expect(pv.errorBound).toBeGreaterThanOrEqual(Math.max(pv.errorBoundPositive, pv.errorBoundNegative));
+      }
+    }
+  });
+
+  it('the JSON report carries both per-tail bounds beside errorBound, equal to the result', () => {
+    const y = [3.1, 2.7, 3.9, 4.4, 4.0, 5.2, 5.1, 6.3, 6.0, 7.2]; // invented
+    const r = exactDwTest({ y, x: { t: y.map((_, i) => i + 1) } });
+    const j = JSON.parse(renderJson(r));
+    expect(j.errorBoundPositive).toBe(r.errorBoundPositive);
+    expect(j.errorBoundNegative).toBe(r.errorBoundNegative);
+    expect(j.errorBound).toBe(r.errorBound);
+    expect(r.errorBoundPositive).toBeGreaterThan(0);
   });
 });

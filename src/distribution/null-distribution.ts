@@ -129,7 +129,7 @@ export class DwNullDistribution {
     const { operator, basis } = this.source;
     const n = basis?.n ?? 0;
     const method = this.options.method ?? 'auto';
-    if (operator && basis && (method === 'dct' || (method === 'auto' && n > AUTO_SPECTRUM_MAX_N && !this.source.hasSpectrum() && dctApplies(this.source)))) {
+    if (operator && basis && (method === 'dct' || (method === 'auto' && n > AUTO_SPECTRUM_MAX_N && dctApplies(this.source)))) {
       return dctDensity(operator, basis, c).value;
     }
     return imhofDensity(this.source.spectrum(), c).value;
