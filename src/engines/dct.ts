@@ -609,8 +609,11 @@ export function dctTail(a: BandMatrix, basis: ColumnBasis, c: number, tail: Tail
     throw new DwError('ENGINE_NOT_APPLICABLE', `The point c = ${c} is not a finite number.`, 'Give the value of d at which the probability is wanted.');
   }
   const below = tail === 'lower';
-  if (c <= eb.lambdaMin) return exactTail(below ? 0 : 1, 'dct');
-  if (c >= eb.lambdaMax) return exactTail(below ? 1 : 0, 'dct');
+  // the eigenvalues of A bound the support of d (interlacing); they are computed here, so only a
+  // c beyond them by more than their rounding is outside for certain
+  const margin = 8 * Number.EPSILON * Math.max(1, eb.lambdaMax);
+  if (c < eb.lambdaMin - margin) return exactTail(below ? 0 : 1, 'dct');
+  if (c > eb.lambdaMax + margin) return exactTail(below ? 1 : 0, 'dct');
   const r = integrateDct(dctForm(eb, c, below ? 1 : -1), options);
   return { p: r.p, errorBound: r.errorBound, relativeError: r.p > 0 ? r.errorBound / r.p : Infinity, method: 'dct' };
 }
@@ -633,7 +636,8 @@ export function dctTail(a: BandMatrix, basis: ColumnBasis, c: number, tail: Tail
  */
 export function dctDensity(a: BandMatrix, basis: ColumnBasis, c: number, options: DctOptions = {}): { value: number; errorBound: number } {
   const eb = requireEigenbasis(a, basis);
-  if (!(c > eb.lambdaMin && c < eb.lambdaMax)) return { value: 0, errorBound: 0 };
+  const margin = 8 * Number.EPSILON * Math.max(1, eb.lambdaMax);
+  if (c < eb.lambdaMin - margin || c > eb.lambdaMax + margin) return { value: 0, errorBound: 0 };
   const tol = options.tolerance ?? 1e-10;
   const form = dctForm(eb, c, 1);
   const m = form.m;

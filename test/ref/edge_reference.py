@@ -67,6 +67,11 @@ def imhof_lower(nu, c, method):
     return mpf(1) / 2 - mp.quad(f, pts, method=method) / mp.pi
 
 
+def imhof_upper(nu, c):
+    # P(d >= c) = P(sum (c - nu) z^2 <= 0): the mirror form, so a small upper tail keeps its digits
+    return imhof_lower([-v for v in nu], -c, 'tanh-sinh')
+
+
 def ulps(x, k):
     for _ in range(abs(k)):
         x = math.nextafter(x, math.inf if k > 0 else -math.inf)
@@ -95,13 +100,20 @@ def main():
     nu = spectrum(5, True)
     pts = []
     mid = float(nu[1])
-    for c in [ulps(mid, k) for k in [-2, -1, 0, 1, 2]] + [mid * (1 + s) for s in [-1e-9, 1e-9, -1e-12, 1e-12]]:
+    lo, hi = float(nu[0]), float(nu[2])
+    # next to the middle eigenvalue, and next to the two ends (there one weight is tiny and all the
+    # others have one sign: sin(theta) tends to 1, not 0, beyond 1/|tiny weight|)
+    near = [ulps(mid, k) for k in [-2, -1, 0, 1, 2]] + [mid * (1 + s) for s in [-1e-9, 1e-9, -1e-12, 1e-12]]
+    near += [ulps(lo, k) for k in [1, 2, 8]] + [lo * (1 + 1e-12), lo * (1 + 1e-10)]
+    near += [ulps(hi, -k) for k in [1, 2, 8]] + [hi * (1 - 1e-12), hi * (1 - 1e-10)]
+    for c in near:
         a = imhof_lower(nu, mpf(c), 'tanh-sinh')
         b = imhof_lower(nu, mpf(c), 'gauss-legendre')
         if abs(a - b) > mpf(10) ** -25:
             print(f'disagreement at c = {c}: {a} vs {b}', file=sys.stderr)
             sys.exit(1)
-        pts.append({'c': repr(c), 'lower': repr(float(a)), 'upper': repr(float(1 - a))})
+        up = 1 - a if a < mpf('0.5') else imhof_upper(nu, mpf(c))
+        pts.append({'c': repr(c), 'lower': repr(float(a)), 'upper': repr(float(up))})
     q = mpf('0.05')
     crit = mp.findroot(lambda c: imhof_lower(nu, c, 'tanh-sinh') - q, (nu[0] + mpf('0.01'), nu[1]), solver='anderson')
     cases.append({'id': 'm3-n5', 'n': 5, 'trend': True, 'nu': [repr(float(v)) for v in nu], 'points': pts, 'quantile05': repr(float(crit))})
