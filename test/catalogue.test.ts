@@ -215,7 +215,7 @@ const C: Entry[] = [
   { input: 'n beyond every engine (n = 2000000)', code: 'SIZE_LIMIT', words: ['beyond every engine', 'n = 1000000'],
     lib: () => checkSize(2000000, 3, 'auto'), note: 'library only: checkSize' },
   { input: 'a level that no double-precision d reaches (m = 2, level 1e-12 next to the end of the support)', code: 'QUANTILE_UNREACHABLE', words: ['No double-precision value of d', 'Use a larger level'],
-    lib: () => DwNullDistribution.fromSpectrum(Float64Array.of(1, 3)).quantile(1e-12), note: 'library only: the CLI levels are at least 1e-300 but its designs have m >= 2' },
+    lib: () => DwNullDistribution.fromSpectrum(Float64Array.of(1, 3)).quantile(1e-12), note: 'library only: DwNullDistribution.quantile' },
   { input: "m beyond Pan's formula (m = 500)", code: 'SIZE_LIMIT', words: ['m = n - k = 400', '--method imhof'], lib: () => checkSize(503, 3, 'pan'), note: 'library only: checkSize' },
 ];
 

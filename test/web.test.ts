@@ -48,6 +48,7 @@ beforeAll(async () => {
   served = await startServer({ root: out, port: 0 });
   context = await chromium.launchPersistentContext(profile, {
     executablePath: browser.path,
+    ...(browser.env ? { env: browser.env } : {}),
     headless: true,
     args: FLAGS,
     viewport: { width: 1100, height: 900 },
