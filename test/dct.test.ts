@@ -15,6 +15,9 @@ import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { checkSize } from '../src/limits.js';
 import { seededNormal } from './helpers/reference.js';
 import type { BandMatrix } from '../src/core/types.js';
+import { writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { cli, scratch } from './helpers/cli.js';
 
 function design(n: number, seed: number) {
   const g = seededNormal(seed);
@@ -128,5 +131,20 @@ describe('DCT route against Imhof on the structured spectrum and the eigen-free 
     expect(() => checkSize(1000000, 5, 'auto')).not.toThrow();
     expect(() => checkSize(1000001, 5, 'dct')).toThrowError(/beyond every engine/);
     expect(() => checkSize(200000, 5, 'eigenfree')).toThrowError(/eigen-free engine is limited to n = 100000/);
+  });
+
+  it('CLI: --method dct answers with the DCT route and the same p-values as --method imhof (JSON, per-tail bounds)', async () => {
+    const n = 60;
+    const x = design(n, 3);
+    const file = join(scratch(), 'X.csv');
+    writeFileSync(file, 'trend,z\n' + Array.from({ length: n }, (_, t) => `${x.trend[t]},${x.z[t]}`).join('\n') + '\n');
+    const a = await cli('pvalue', '--design', file, '--d', '1.7', '--method', 'dct', '--format', 'json');
+    const b = await cli('pvalue', '--design', file, '--d', '1.7', '--method', 'imhof', '--format', 'json');
+    expect(a.status).toBe(0);
+    expect(b.status).toBe(0);
+    const ja = JSON.parse(a.out), jb = JSON.parse(b.out);
+    expect(ja.method).toBe('dct');
+    expect(Math.abs(ja.pPositive - jb.pPositive)).toBeLessThanOrEqual(ja.errorBoundPositive + jb.errorBoundPositive);
+    expect(Math.abs(ja.pNegative - jb.pNegative)).toBeLessThanOrEqual(ja.errorBoundNegative + jb.errorBoundNegative);
   });
 });
