@@ -60,7 +60,15 @@ function dct(source: NullSource, c: number, tail: Tail, tolerance?: number): Tai
   return dctTail(source.operator, source.basis, c, tail, { tolerance });
 }
 
-/** True when the source is a design whose operator the DCT route takes (a union of chains). */
+/**
+ * True when the source is a design whose operator the DCT route takes (a union of chains).
+ *
+ * @example
+ * ```ts
+ * dctApplies(prepareProblem({ t: [1, 2, 3, 4, 5, 6] }, 6).distribution.source); // true
+ * dctApplies(spectrumSource(Float64Array.of(1, 3)));                         // false: no design
+ * ```
+ */
 export function dctApplies(source: NullSource): boolean {
   return !!(source.operator && source.basis && dctEigenbasis(source.operator, source.basis) !== null);
 }
