@@ -7,8 +7,9 @@
 /** Name of a probability engine. */
 /**
  * Name of a probability engine: Imhof's integral on the spectrum, Pan's finite-range form, the
- * eigen-free log-determinant route, and the inversion on a line through the saddlepoint (for small
- * tails with relative accuracy, any spectrum).
+ * eigen-free log-determinant route, the inversion on a line through the saddlepoint (for small
+ * tails with relative accuracy, any spectrum), and Imhof's integral in the closed-form DCT
+ * eigenbasis of a difference operator (`dct`, long series).
  */
 export type EngineName = 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint' | 'dct';
 

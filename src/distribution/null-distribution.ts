@@ -14,7 +14,7 @@ import { spectrumSource, type NullSource } from './source.js';
 
 /** Options of a null distribution. */
 export interface DistributionOptions {
-  /** Engine: `auto` (default), `imhof`, `pan` or `eigenfree`. */
+  /** Engine: `auto` (default), `imhof`, `pan`, `eigenfree`, `saddlepoint` or `dct`. */
   method?: MethodChoice;
   /** Target absolute error of each probability (default 1e-11). */
   tolerance?: number;

@@ -596,6 +596,9 @@ export function integrateDct(form: DctForm, options: DctOptions = {}): { p: numb
 /**
  * P(d <= c) (`lower`) or P(d >= c) (`upper`) by the DCT eigenbasis route, for a design whose
  * operator is a difference operator (any lag, gaps). Each tail is computed directly.
+ * `errorBound` = the convexity bound on the truncated tail of the integral (rigorous) + the summed
+ * |K15 - G7| of the panels (a conservative estimate) + the series cut (below 1e-16 in L by
+ * construction) + a rounding estimate 4 k^2 sqrt(n) eps for the sums over n.
  *
  * @throws DwError ENGINE_NOT_APPLICABLE when the operator is not a union of chains or the shapes disagree
  * @example
