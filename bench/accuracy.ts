@@ -18,7 +18,7 @@ const ref = JSON.parse(readFileSync(`${root}test/ref/reference.json`, 'utf8')) a
 
 type Regime = 'small n (n <= 30)' | 'moderate n (n > 30)' | 'far lower tail (1e-15 <= P < 1e-6)' | 'far upper tail (1e-15 <= P < 1e-6)' | 'beyond the target (P < 1e-15)';
 const REGIMES: Regime[] = ['small n (n <= 30)', 'moderate n (n > 30)', 'far lower tail (1e-15 <= P < 1e-6)', 'far upper tail (1e-15 <= P < 1e-6)', 'beyond the target (P < 1e-15)'];
-const ENGINES = ['imhof', 'pan', 'saddlepoint', 'eigenfree', 'auto'] as const;
+const ENGINES = ['imhof', 'pan', 'saddlepoint', 'eigenfree', 'dct', 'auto'] as const;
 type Engine = (typeof ENGINES)[number];
 
 interface Row { abs: number[]; rel: number[]; violations: number; count: number; refused: number }
@@ -92,7 +92,9 @@ lines.push(`Bound honesty: the true error exceeded the reported bound in ${total
 lines.push('');
 lines.push(`Spectrum (fastSpectrum, with its dense fallback) against the mpmath eigenvalues: max abs error ${e1(spectrumError)}.`);
 lines.push('');
-lines.push('Imhof and eigen-free give absolute accuracy: in the far tails their relative error grows as P shrinks');
+lines.push('`dct` is the DCT eigenbasis route (src/engines/dct.ts), which `auto` uses beyond n = 1000 for difference operators.');
+lines.push('');
+lines.push('Imhof, eigen-free and DCT give absolute accuracy: in the far tails their relative error grows as P shrinks');
 lines.push('(the probability comes out as 1/2 minus a number near 1/2). Pan computes the small tail directly and');
 lines.push('keeps relative accuracy there where it applies; the inversion on a line through the saddlepoint');
 lines.push('(src/engines/saddle-contour.ts, engine `saddlepoint`) keeps it for any spectrum, ties');

@@ -64,7 +64,8 @@ export type DwErrorCode =
   // numerical limits
   | 'SIZE_LIMIT'
   | 'ENGINE_NOT_APPLICABLE'
-  | 'NOT_CONVERGED';
+  | 'NOT_CONVERGED'
+  | 'QUANTILE_UNREACHABLE';
 
 /** Details that locate the problem in the caller's input (all optional). */
 export interface DwErrorDetail {

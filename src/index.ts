@@ -12,7 +12,7 @@ export { denseSpectrum, spectrumMean, spectrumVariance } from './core/spectrum.j
 export { symmetricEigenvalues, tridiagonalEigenvalues } from './core/symmetric-eigen.js';
 export { imhofTail, imhofDensity, integrateImhof, spectralForm, type ImhofOptions } from './engines/imhof.js';
 export { tailProbability, type EngineOptions } from './engines/choose.js';
-export { DwNullDistribution, type DistributionOptions } from './distribution/null-distribution.js';
+export { DwNullDistribution, quantileTolerance, type DistributionOptions } from './distribution/null-distribution.js';
 export { spectrumSource, designSource, type NullSource } from './distribution/source.js';
 export { brentRoot } from './distribution/root.js';
 export { buildDesign, factorDesign, INTERCEPT_NAME, type Design, type DesignOptions, type FactoredDesign, type RegressorInput } from './model/design.js';
@@ -48,8 +48,10 @@ export { normalCdf, normalSf, chiSquareSf, fSf, studentTSf } from './dynamic/tai
 export { contourTail } from './engines/saddle-contour.js';
 export { panTail, panApplicable, type PanOptions } from './engines/pan.js';
 export { eigenfreeForm, type EigenfreeForm } from './engines/eigenfree.js';
+export { dctTail, dctDensity, dctEigenbasis, dctForm, integrateDct, type DctEigenbasis, type DctForm, type DctOptions } from './engines/dct.js';
+export { dctPlan, type DctPlan } from './core/dct.js';
 export { fastSpectrum } from './core/fast-spectrum.js';
-export { checkSize, memoryEstimate, checkPowerSize, POWER_MAX_N } from './limits.js';
+export { checkSize, memoryEstimate, checkPowerSize, POWER_MAX_N, DCT_MAX_N } from './limits.js';
 export * from './bounds/index.js';
 export {
   exactDwBatch, batchTable, batchColumns, groupRows, testGroups, finishBatch, checkBatchOptions, MISSING_GROUP_LABEL,

@@ -12,7 +12,10 @@
  *     accuracy as m grows (forced use is limited to m = 400), while in the tails it stays accurate
  *     at any m (src/engines/pan.ts), which is where `auto` uses it
  *     (measured in src/engines/pan.ts);
- *   - eigen-free Imhof (eigenfree.ts): O(n k) memory, O(n k (k + lag)) per evaluation.
+ *   - eigen-free Imhof (eigenfree.ts): O(n k) memory, O(n k (k + lag)) per evaluation;
+ *   - DCT eigenbasis route (dct.ts, difference operators): one fast DCT per chain and column
+ *     (O(n k log n)), then O(n k^2) per evaluation; memory about 8 n (k + 1) bytes for W and the
+ *     eigenvalues plus the transform's work arrays.
  *
  * The limits below were set from timings of one run on this project's development machine (a
  * shared 2-core container; see docs/errors-and-limits.md): the dense spectrum took 2.4 s at
@@ -31,6 +34,11 @@ export const PAN_MAX_M = 400;
 /** Largest n for the eigen-free engine (time: about 8 s per probability at n = 10^5, k = 3). */
 export const EIGENFREE_MAX_N = 100000;
 /**
+ * Largest n for the DCT eigenbasis route (measured: one p-value at n = 10^6, k = 5 in a few
+ * seconds, see docs/performance.md; memory about 8 n (k + 6) bytes).
+ */
+export const DCT_MAX_N = 1000000;
+/**
  * Largest n for exact power against AR(1) errors: the eigen-free route of src/power/eigenfree-power.ts
  * takes every n up to the eigen-free engine's limit (its dense route stops at POWER_SIZE_LIMIT in
  * src/power/exact-power.ts). Measured: one probability under the alternative took about 6.5 s at
@@ -41,7 +49,7 @@ export const POWER_MAX_N = EIGENFREE_MAX_N;
 export const MEMORY_BUDGET_BYTES = 2 ** 30;
 
 /** Engines the limits speak of; `auto` means "any engine that fits". */
-export type SizedEngine = 'auto' | 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint';
+export type SizedEngine = 'auto' | 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint' | 'dct';
 
 /** How the spectrum would be computed for the spectral engines (Imhof, Pan). */
 export interface SizeOptions {
@@ -70,6 +78,9 @@ export function memoryEstimate(n: number, k: number, engine: Exclude<SizedEngine
     case 'eigenfree':
       // complex band factors and the n x k basis and its transforms
       return 16 * n * (2 * (bw + 1) + 2 * k) + 8 * n * (k + 4);
+    case 'dct':
+      // W (n x k), the eigenvalues and shifted weights, the basis itself and the FFT work arrays
+      return 8 * n * (2 * k + 16);
   }
 }
 
@@ -97,7 +108,7 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
   const spectrumLimit = (options.spectrum ?? 'dense') === 'dense' ? DENSE_SPECTRUM_MAX_N : STRUCTURED_SPECTRUM_MAX_N;
   const routeName = (options.spectrum ?? 'dense') === 'dense' ? 'the dense spectrum' : 'the structured spectrum';
   const tooBigForAll = () => new DwError('SIZE_LIMIT',
-    `n = ${n} observations is beyond every engine: the largest is n = ${EIGENFREE_MAX_N} (eigen-free engine, about 8 s per probability there, growing in proportion to n).`,
+    `n = ${n} observations is beyond every engine: the largest is n = ${DCT_MAX_N} (DCT eigenbasis route, for difference operators; the eigen-free engine takes any band operator up to n = ${EIGENFREE_MAX_N}).`,
     'Test a shorter span of the series, or aggregate it (for example daily to weekly); the Durbin-Watson test on a series this long is in any case close to its normal approximation.');
   const memory = (e: Exclude<SizedEngine, 'auto'>) => {
     const bytes = memoryEstimate(n, k, e, options);
@@ -126,16 +137,27 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
       memory('pan');
       return;
     case 'eigenfree':
-      if (n > EIGENFREE_MAX_N) throw tooBigForAll();
+      if (n > EIGENFREE_MAX_N) {
+        if (n <= DCT_MAX_N) {
+          throw new DwError('SIZE_LIMIT', `The eigen-free engine is limited to n = ${EIGENFREE_MAX_N} (n = ${n} here).`,
+            'Use --method dct (or auto), the DCT eigenbasis route, which takes difference operators up to n = 1000000.');
+        }
+        throw tooBigForAll();
+      }
       memory('eigenfree');
+      return;
+    case 'dct':
+      if (n > DCT_MAX_N) throw tooBigForAll();
+      memory('dct');
       return;
     case 'auto':
       if (n <= spectrumLimit && memoryEstimate(n, k, 'imhof', options) <= MEMORY_BUDGET_BYTES) return;
-      if (n > EIGENFREE_MAX_N) throw tooBigForAll();
+      if (n > DCT_MAX_N) throw tooBigForAll();
+      if (n > EIGENFREE_MAX_N) { memory('dct'); return; }
       memory('eigenfree');
       return;
     default:
-      throw new DwError('OPTION_VALUE', `Unknown engine '${String(engine)}'.`, 'Use auto, imhof, pan or eigenfree.');
+      throw new DwError('OPTION_VALUE', `Unknown engine '${String(engine)}'.`, 'Use auto, imhof, pan, eigenfree, saddlepoint or dct.');
   }
 }
 

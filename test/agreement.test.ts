@@ -14,6 +14,7 @@ import { fastSpectrum } from '../src/core/fast-spectrum.js';
 import { imhofTail, integrateImhof } from '../src/engines/imhof.js';
 import { panApplicable, panTail } from '../src/engines/pan.js';
 import { eigenfreeForm } from '../src/engines/eigenfree.js';
+import { dctTail } from '../src/engines/dct.js';
 import { contourTail } from '../src/engines/saddle-contour.js';
 import { buildDesign, factorDesign } from '../src/model/design.js';
 import { seededNormal, seededRandom } from './helpers/reference.js';
@@ -47,7 +48,7 @@ function setup(c: Case) {
   return { a, basis, nu: fastSpectrum(a, basis) };
 }
 
-describe('engine agreement on 200 seeded random designs (Imhof, Pan, saddlepoint; eigen-free on 50)', () => {
+describe('engine agreement on 200 seeded random designs (Imhof, Pan, saddlepoint, DCT; eigen-free on 50)', () => {
   const all = cases(200);
   it('covers the ranges the issue asks for', () => {
     expect(Math.min(...all.map((c) => c.n))).toBeLessThanOrEqual(8);
@@ -55,11 +56,12 @@ describe('engine agreement on 200 seeded random designs (Imhof, Pan, saddlepoint
     expect(new Set(all.map((c) => c.k)).size).toBeGreaterThanOrEqual(10);
     expect(all.some((c) => !c.intercept)).toBe(true);
   });
-  it('Imhof, Pan, saddlepoint and eigen-free agree to 1e-9 wherever two apply', () => {
+  it('Imhof, Pan, saddlepoint, DCT and eigen-free agree to 1e-9 wherever two apply', () => {
     const failures: string[] = [];
     let comparisons = 0;
     let panUsed = 0;
     let eigenfreeUsed = 0;
+    let dctUsed = 0;
     for (const c of all) {
       const { a, basis, nu } = setup(c);
       const lo = nu[0], hi = nu[nu.length - 1];
@@ -76,6 +78,11 @@ describe('engine agreement on 200 seeded random designs (Imhof, Pan, saddlepoint
             eigenfreeUsed++;
             if (!(Math.abs(im.p - ef.p) <= 1e-9)) failures.push(`seed ${c.seed} (n ${c.n}, k ${c.k}, intercept ${c.intercept}) c ${x} ${tail}: imhof ${im.p} eigenfree ${ef.p}`);
           }
+          // the DCT eigenbasis route on every design (its operator is always a difference operator)
+          const dc = dctTail(a, basis, x, tail);
+          comparisons++;
+          dctUsed++;
+          if (!(Math.abs(im.p - dc.p) <= 1e-9)) failures.push(`seed ${c.seed} (n ${c.n}, k ${c.k}, intercept ${c.intercept}) c ${x} ${tail}: imhof ${im.p} dct ${dc.p}`);
           const sp = contourTail(nu, x, tail);
           comparisons++;
           if (!(Math.abs(im.p - sp.p) <= 1e-9)) failures.push(`seed ${c.seed} (n ${c.n}, k ${c.k}, intercept ${c.intercept}) c ${x} ${tail}: imhof ${im.p} saddlepoint ${sp.p}`);
@@ -91,6 +98,7 @@ describe('engine agreement on 200 seeded random designs (Imhof, Pan, saddlepoint
     expect(failures, failures.slice(0, 10).join('\n')).toEqual([]);
     expect(comparisons).toBeGreaterThan(800);
     expect(eigenfreeUsed).toBeGreaterThanOrEqual(400);
+    expect(dctUsed).toBeGreaterThanOrEqual(1600);
     // Pan must actually take part in a good share of the comparisons
     expect(panUsed).toBeGreaterThan(400);
   });

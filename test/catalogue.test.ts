@@ -232,8 +232,10 @@ const C: Entry[] = [
   // ---- limits
   { input: 'n beyond the spectral engines (Imhof asked for n = 50000)', code: 'SIZE_LIMIT', words: ['limited to n = 2000', '--method eigenfree'],
     lib: () => checkSize(50000, 3, 'imhof'), note: 'library only: checkSize, see src/limits.ts' },
-  { input: 'n beyond every engine (n = 200000)', code: 'SIZE_LIMIT', words: ['beyond every engine', 'n = 100000'],
-    lib: () => checkSize(200000, 3, 'auto'), note: 'library only: checkSize' },
+  { input: 'n beyond every engine (n = 2000000)', code: 'SIZE_LIMIT', words: ['beyond every engine', 'n = 1000000'],
+    lib: () => checkSize(2000000, 3, 'auto'), note: 'library only: checkSize' },
+  { input: 'a level that no double-precision d reaches (m = 2, level 1e-12 next to the end of the support)', code: 'QUANTILE_UNREACHABLE', words: ['No double-precision value of d', 'Use a larger level'],
+    lib: () => DwNullDistribution.fromSpectrum(Float64Array.of(1, 3)).quantile(1e-12), note: 'library only: DwNullDistribution.quantile' },
   { input: "m beyond Pan's formula (m = 500)", code: 'SIZE_LIMIT', words: ['m = n - k = 400', '--method imhof'], lib: () => checkSize(503, 3, 'pan'), note: 'library only: checkSize' },
 ];
 

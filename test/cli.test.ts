@@ -17,11 +17,11 @@ const data = join(dir, 'data.csv');
 writeFileSync(data, 'year,y,trend,price\n' + Array.from({ length: 16 }, (_, i) => `${2001 + i},${(3 + 0.4 * i + Math.cos(i * 2.3)).toFixed(4)},${i + 1},${(10 + Math.sin(i * 1.7) * 3).toFixed(3)}`).join('\n') + '\n');
 
 describe('exact-dw pvalue', () => {
-  it('JSON has exactly the keys d, n, k, pPositive, pNegative, pTwoSided, method, errorBound', async () => {
+  it('JSON has exactly the keys d, n, k, pPositive, pNegative, pTwoSided, method, errorBound and the per-tail bounds', async () => {
     const r = await cli('pvalue', '--design', design, '--d', '1.23', '--format', 'json');
     expect(r.status).toBe(0);
     const j = JSON.parse(r.out);
-    expect(Object.keys(j).sort()).toEqual(['d', 'errorBound', 'k', 'method', 'n', 'pNegative', 'pPositive', 'pTwoSided'].sort());
+    expect(Object.keys(j).sort()).toEqual(['d', 'errorBound', 'errorBoundNegative', 'errorBoundPositive', 'k', 'method', 'n', 'pNegative', 'pPositive', 'pTwoSided'].sort());
     expect(j.k).toBe(3);
     expect(j.n).toBe(16);
     const lib = exactDwPValue({ x: { trend: Array.from({ length: 16 }, (_, i) => i + 1), price: Array.from({ length: 16 }, (_, i) => +(10 + Math.sin(i * 1.7) * 3).toFixed(3)) }, d: 1.23 });

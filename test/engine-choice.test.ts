@@ -25,13 +25,13 @@ describe('auto engine choice', () => {
     expect(tail.method).toBe('pan');
     expect(tail.relativeError).toBeLessThan(1e-6);
   });
-  it('large n: the eigen-free engine, agreeing with Imhof on the spectrum to 1e-9', () => {
+  it('large n: the DCT eigenbasis route for a difference operator, agreeing with Imhof on the spectrum to 1e-9', () => {
     const n = 1500;
     const x = regressors(n, 2);
     const big = prepareProblem(x, n).distribution;
     const r = big.lowerTail(1.93);
-    expect(r.method).toBe('eigenfree');
-    expect(r.reason).toMatch(/eigen-free/);
+    expect(r.method).toBe('dct');
+    expect(r.reason).toMatch(/DCT eigenbasis/);
     const spectral = new DwNullDistribution(prepareProblem(x, n).distribution.source, { method: 'imhof' });
     expect(Math.abs(spectral.cdf(1.93) - r.p)).toBeLessThan(1e-9);
   });

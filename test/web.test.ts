@@ -1,13 +1,15 @@
 /**
- * End-to-end tests of the offline page (src/web) in headless Chromium: Debian's `chromium`, driven
- * by playwright-core (which never downloads a browser of its own). The page is built with Vite into
+ * End-to-end tests of the offline page (src/web) in headless Chromium: Debian's `chromium` when it
+ * is installed, else the binary shipped inside the npm dev dependency @sparticuz/chromium
+ * (test/helpers/browser.ts; `EXACT_DW_BROWSER=bundled` forces it), driven by playwright-core (which
+ * never downloads a browser of its own). The page is built with Vite into
  * a temporary folder, served by the project's own static server (src/web/serve.mjs) on 127.0.0.1
  * with an ephemeral port, and also opened from file://. Every number the page shows is compared
  * with the library's JSON (exactDwTest on the same data, run here in Node) to the precision shown.
  * One browser for the whole file; no test reads the clock.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createHash } from 'node:crypto';
@@ -22,8 +24,8 @@ import { DwError } from '../src/errors.js';
 import { formatBound, formatProbability, formatStatistic } from '../src/web/format.js';
 import { guessColumns, summarizeColumns } from '../src/web/columns.js';
 import { forThePage, plainError } from '../src/web/plain-error.js';
+import { chromiumPath } from './helpers/browser.js';
 
-const CHROMIUM = '/usr/bin/chromium';
 const FLAGS = [
   '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
   '--disable-component-update', '--disable-sync',
@@ -40,16 +42,14 @@ const requests: string[] = [];
 const problems: string[] = [];
 
 beforeAll(async () => {
-  if (!existsSync(CHROMIUM)) {
-    throw new Error(`The browser tests need Debian's chromium at ${CHROMIUM}, and it is not installed. `
-      + 'Install it with: apt-get update && apt-get install -y chromium (CI\'s .ci/run does this when it is missing).');
-  }
+  const browser = await chromiumPath();
   out = mkdtempSync(join(tmpdir(), 'exact-dw-page-'));
   profile = mkdtempSync(join(tmpdir(), 'exact-dw-chromium-'));
   await build({ configFile: join(root, 'src', 'web', 'vite.config.ts'), logLevel: 'silent', build: { outDir: out, emptyOutDir: true } });
   served = await startServer({ root: out, port: 0 });
   context = await chromium.launchPersistentContext(profile, {
-    executablePath: CHROMIUM,
+    executablePath: browser.path,
+    ...(browser.env ? { env: browser.env } : {}),
     headless: true,
     args: FLAGS,
     viewport: { width: 1100, height: 900 },

@@ -195,7 +195,7 @@ export function choiceOption<T extends string>(values: OptionValues, name: strin
  * ```
  */
 export function methodOption(values: OptionValues): MethodChoice {
-  return choiceOption(values, 'method', ['auto', 'imhof', 'pan', 'eigenfree', 'saddlepoint'] as const, 'auto');
+  return choiceOption(values, 'method', ['auto', 'imhof', 'pan', 'eigenfree', 'saddlepoint', 'dct'] as const, 'auto');
 }
 
 /**

@@ -38,7 +38,7 @@ export const MODEL_OPTIONS: OptionSpecs = {
   time: { type: 'string', value: 'COL', help: 'time column: integers, quarters (2015Q1, 2015-Q1), months (2015-01) or ISO dates; not a regressor; gaps are honoured' },
   'no-time': { type: 'boolean', help: 'no time index: do not take a time-like column as the time index (the rows are consecutive)' },
   frequency: { type: 'string', value: 'F', help: 'frequency of the --time dates: annual, quarterly, monthly, weekly or daily (inferred when omitted)' },
-  method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan, eigenfree or saddlepoint' },
+  method: { type: 'string', value: 'ENGINE', help: 'auto (default), imhof, pan, eigenfree, saddlepoint or dct' },
 };
 
 /**

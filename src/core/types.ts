@@ -7,10 +7,11 @@
 /** Name of a probability engine. */
 /**
  * Name of a probability engine: Imhof's integral on the spectrum, Pan's finite-range form, the
- * eigen-free log-determinant route, and the inversion on a line through the saddlepoint (for small
- * tails with relative accuracy, any spectrum).
+ * eigen-free log-determinant route, the inversion on a line through the saddlepoint (for small
+ * tails with relative accuracy, any spectrum), and Imhof's integral in the closed-form DCT
+ * eigenbasis of a difference operator (`dct`, long series).
  */
-export type EngineName = 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint';
+export type EngineName = 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint' | 'dct';
 
 /** Engine choice offered to callers: a named engine, or `auto` to let the library choose. */
 export type MethodChoice = 'auto' | EngineName;
@@ -68,6 +69,12 @@ export interface CharacteristicForm {
   sumLogAbsLambda: number;
   /** max |lambda_j| (sets the natural scale of u). */
   maxAbsLambda: number;
+  /**
+   * When set, the truncation bound built from (m, sumLogAbsLambda) is only vouched for at cut
+   * points U up to this value (a floored sumLogAbsLambda, as in the eigen-free engine); beyond it
+   * `integrateImhof` places the cut by the convexity bound of src/core/convexity-cut.ts instead.
+   */
+  truncationValidBelow?: number;
   /**
    * Write theta(u) into out[0] and log rho(u) into out[1]. theta must be the continuous branch
    * (the sum of principal arctangents), never reduced modulo 2 pi.

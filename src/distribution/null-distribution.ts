@@ -5,7 +5,8 @@
  */
 import { DwError } from '../errors.js';
 import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
-import { tailProbability, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
+import { tailProbability, dctApplies, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
+import { dctDensity } from '../engines/dct.js';
 import { imhofDensity } from '../engines/imhof.js';
 import { brentRoot } from './root.js';
 import { normalUpperQuantileStart } from '../core/normal-start.js';
@@ -13,7 +14,7 @@ import { spectrumSource, type NullSource } from './source.js';
 
 /** Options of a null distribution. */
 export interface DistributionOptions {
-  /** Engine: `auto` (default), `imhof`, `pan` or `eigenfree`. */
+  /** Engine: `auto` (default), `imhof`, `pan`, `eigenfree`, `saddlepoint` or `dct`. */
   method?: MethodChoice;
   /** Target absolute error of each probability (default 1e-11). */
   tolerance?: number;
@@ -80,9 +81,23 @@ export class DwNullDistribution {
 
   private withInputError(r: TailProbability, c: number, tail: 'lower' | 'upper'): TailProbability {
     const delta = this.source.spectrumError;
-    if (!(delta > 0) || r.p === 0 || r.p === 1) return r;
+    if (!(delta > 0)) return r;
     const [lo, hi] = this.support;
     const h = Math.max(1e4 * delta, 1e-9 * (hi - lo));
+    if (c - lo <= h || hi - c <= h) {
+      // near an end of the support the CDF need not be smooth (for m = 2 it has a square-root edge:
+      // P(d <= nu_1 + x) ~ (2/pi) sqrt(x / (nu_2 - nu_1))), and c may even lie beyond the computed
+      // end while inside the true one. The true tail lies between the tails at c - 2 delta and
+      // c + 2 delta (d moves by at most delta when every nu_i does); take both sides directly.
+      let extra = 0;
+      for (const c2 of [c - 2 * delta, c + 2 * delta]) {
+        const r2 = tailProbability(this.source, c2, tail, this.options);
+        extra = Math.max(extra, Math.abs(r2.p - r.p) + r2.errorBound);
+      }
+      const errorBound = r.errorBound + extra;
+      return { ...r, errorBound, relativeError: r.p > 0 ? errorBound / r.p : Infinity };
+    }
+    if (r.p === 0 || r.p === 1) return r;
     // step into the tail's own direction of growth so the slope is taken where P is larger
     const c2 = tail === 'lower' ? c + h : c - h;
     const r2 = tailProbability(this.source, c2, tail, this.options);
@@ -104,13 +119,30 @@ export class DwNullDistribution {
     return tailProbability(this.source, c, 'upper', this.options).p;
   }
 
-  /** The exact density of d at c (the derivative of the exact CDF). */
+  /**
+   * The exact density of d at c (the derivative of the exact CDF): from the spectrum, or, for a
+   * design with n above 1000 whose operator is a difference operator (or with `method: 'dct'`),
+   * from the DCT eigenbasis route's characteristic form, so that it needs no spectrum at any n.
+   */
   pdf(c: number): number {
     checkPoint(c);
+    const { operator, basis } = this.source;
+    const n = basis?.n ?? 0;
+    const method = this.options.method ?? 'auto';
+    if (operator && basis && (method === 'dct' || (method === 'auto' && n > AUTO_SPECTRUM_MAX_N && dctApplies(this.source)))) {
+      return dctDensity(operator, basis, c).value;
+    }
     return imhofDensity(this.source.spectrum(), c).value;
   }
 
-  /** The c with P(d <= c) = p (the lower critical value at level p). */
+  /**
+   * The c with P(d <= c) = p (the lower critical value at level p): accepted only when
+   * |P(d <= c) - p| is within {@link quantileTolerance}(p) plus the engine's bound at c.
+   *
+   * @throws DwError QUANTILE_UNREACHABLE when no double c reaches that (the CDF jumps over p
+   *   between neighbouring doubles, as next to an end of the support when m = 2); NOT_CONVERGED
+   *   when the engine cannot resolve the level
+   */
   quantile(p: number): number {
     checkProbability(p);
     const [lo, hi] = this.support;
@@ -120,7 +152,7 @@ export class DwNullDistribution {
     return p > 0.5 ? this.solveTail('upper', 1 - p) : this.solveTail('lower', p);
   }
 
-  /** The c with P(d >= c) = p (the upper critical value at level p). */
+  /** The c with P(d >= c) = p (the upper critical value at level p), accepted as for {@link quantile}. */
   upperQuantile(p: number): number {
     checkProbability(p);
     const [lo, hi] = this.support;
@@ -143,7 +175,7 @@ export class DwNullDistribution {
     // (the engine `auto` starts from at this size: no dependence on what has been computed before)
     const n = this.source.basis?.n ?? 0;
     const searchMethod = chosen !== 'auto' || q < 1e-4 ? chosen
-      : this.source.operator && n > AUTO_SPECTRUM_MAX_N ? 'eigenfree' as const : 'imhof' as const;
+      : this.source.operator && n > AUTO_SPECTRUM_MAX_N ? (dctApplies(this.source) ? 'dct' as const : 'eigenfree' as const) : 'imhof' as const;
     const opts = { ...this.options, method: searchMethod };
     // g increases with c: P(d <= c) - q for the lower tail, q - P(d >= c) for the upper tail
     const g = (c: number) => {
@@ -171,14 +203,49 @@ export class DwNullDistribution {
         'Check the level; if it is valid, please report the design.');
     } else root = brentRoot(g, x0, x1, 1e-11 * Math.max(1, hi - lo));
     // the bound at the root must resolve the level: else the engine cannot vouch for this quantile
-    const at = tailProbability(this.source, root, tail, this.options);
+    let at = tailProbability(this.source, root, tail, this.options);
     if (!(at.errorBound <= 1e-3 * q)) {
       throw new DwError('NOT_CONVERGED',
         `The ${at.method} engine cannot resolve the level ${q}: its error bound near the critical value is ${at.errorBound.toExponential(1)}.`,
         chosen === 'auto' ? 'The level is beyond what the engines can vouch for at this n; use a larger level.' : "Use the default engine choice ('auto'), which keeps relative accuracy in the far tails.");
     }
+    // accept the root only if its tail probability is the level to within the stated tolerance;
+    // else bisect on the doubles of the bracket, and refuse when two neighbouring doubles straddle
+    // the level (the tail probability jumps over it: double precision cannot reach it)
+    const tolP = quantileTolerance(q);
+    const miss = (r: TailProbability) => Math.abs(r.p - q) - r.errorBound;
+    if (!(miss(at) <= tolP) && g0 < 0 && g1 > 0) {
+      let a = x0, b = x1;
+      for (let i = 0; i < 2200 && !(miss(at) <= tolP); i++) {
+        const mid = a + 0.5 * (b - a);
+        if (!(mid > a && mid < b)) break;
+        const r = tailProbability(this.source, mid, tail, this.options);
+        const below = tail === 'lower' ? r.p < q : r.p > q;
+        if (below) a = mid; else b = mid;
+        root = mid; at = r;
+      }
+    }
+    if (!(miss(at) <= tolP)) {
+      throw new DwError('QUANTILE_UNREACHABLE',
+        `No double-precision value of d has ${tail} tail probability ${q} to within ${tolP.toExponential(1)}: the tail probability jumps from below to above it between neighbouring values (at d = ${root} it is ${at.p.toExponential(6)}).`,
+        'Use a larger level; at this one the tail of d is steeper than the spacing of double-precision numbers resolves (this happens next to an end of the support when n - k = 2).');
+    }
     return root;
   }
+}
+
+/**
+ * The tolerance a quantile is accepted with: the returned c has |P(tail at c) - q| at most this
+ * plus the engine's error bound at c (1e-6 of the level: a critical value whose level is off by
+ * one part in a million serves every use).
+ *
+ * @example
+ * ```ts
+ * quantileTolerance(0.05); // 5e-8
+ * ```
+ */
+export function quantileTolerance(q: number): number {
+  return 1e-6 * q;
 }
 
 /** The z with P(Z > z) = q for a standard normal Z, roughly (a starting value only). */

@@ -1,9 +1,14 @@
 /**
  * Engine choice. `auto` answers with the engine best suited to the request and says why:
  *
- *   1. a design with n above {@link AUTO_SPECTRUM_MAX_N} goes to the eigen-free engine (O(n k) per
- *      evaluation, no eigenvalues at all); if its answer is a small tail without relative accuracy
- *      and n allows the structured spectrum, the tail engines below take over;
+ *   1. a design with n above {@link AUTO_SPECTRUM_MAX_N} goes to the DCT eigenbasis route when its
+ *      operator is a difference operator (every operator `differenceMatrix` builds: any lag, gaps):
+ *      the eigenbasis is known in closed form, one fast DCT per column gives the regressors in it,
+ *      and each evaluation is O(n k^2) of plain loops with the integral cut on the scale of the
+ *      integrand, which makes it faster than the eigen-free sweep at every such n (bench/large-n.ts);
+ *      any other band operator goes to the eigen-free engine (no eigenvalues at all). If the answer
+ *      is a small tail without relative accuracy and n allows the structured spectrum, the tail
+ *      engines below take over;
  *   2. otherwise Imhof's integral on the spectrum (absolute error <= 1e-10, any spectrum, ties too);
  *   3. when that probability is small enough that its absolute bound is a poor relative one
  *      (relative error above {@link AUTO_RELATIVE_TARGET}), Pan's finite-range form answers instead
@@ -22,6 +27,7 @@ import { imhofTail, integrateImhof } from './imhof.js';
 import { panApplicable, panTail } from './pan.js';
 import { eigenfreeForm } from './eigenfree.js';
 import { contourTail } from './saddle-contour.js';
+import { dctEigenbasis, dctTail } from './dct.js';
 import type { NullSource } from '../distribution/source.js';
 
 /** Above this n, `auto` avoids computing a spectrum that is not already known. */
@@ -44,6 +50,27 @@ function eigenfree(source: NullSource, c: number, tail: Tail, tolerance?: number
   const below = tail === 'lower';
   const r = integrateImhof(eigenfreeForm(source.operator, source.basis, c, below ? 1 : -1), { tolerance });
   return { p: r.p, errorBound: r.errorBound, relativeError: r.p > 0 ? r.errorBound / r.p : Infinity, method: 'eigenfree' };
+}
+
+function dct(source: NullSource, c: number, tail: Tail, tolerance?: number): TailProbability {
+  if (!source.operator || !source.basis) {
+    throw new DwError('ENGINE_NOT_APPLICABLE', 'The DCT route needs a design (operator and regressors), not a bare spectrum.',
+      'Use --method imhof or pan for a given spectrum.');
+  }
+  return dctTail(source.operator, source.basis, c, tail, { tolerance });
+}
+
+/**
+ * True when the source is a design whose operator the DCT route takes (a union of chains).
+ *
+ * @example
+ * ```ts
+ * dctApplies(prepareProblem({ t: [1, 2, 3, 4, 5, 6] }, 6).distribution.source); // true
+ * dctApplies(spectrumSource(Float64Array.of(1, 3)));                         // false: no design
+ * ```
+ */
+export function dctApplies(source: NullSource): boolean {
+  return !!(source.operator && source.basis && dctEigenbasis(source.operator, source.basis) !== null);
 }
 
 /**
@@ -72,10 +99,12 @@ export function tailProbability(source: NullSource, c: number, tail: Tail, optio
       return eigenfree(source, c, tail, tolerance);
     case 'saddlepoint':
       return contourTail(source.spectrum(), c, tail);
+    case 'dct':
+      return dct(source, c, tail, tolerance);
     case 'auto':
       return auto(source, c, tail, tolerance);
     default:
-      throw new DwError('OPTION_VALUE', `Unknown engine '${String(method)}'.`, 'Use auto, imhof, pan or eigenfree.');
+      throw new DwError('OPTION_VALUE', `Unknown engine '${String(method)}'.`, 'Use auto, imhof, pan, eigenfree, saddlepoint or dct.');
   }
 }
 
@@ -84,12 +113,16 @@ function auto(source: NullSource, c: number, tail: Tail, tolerance?: number): Ta
   // the rule depends on the problem alone (never on what happens to be computed already), so the
   // same input always gets the same engine and the same number
   if (source.operator && n > AUTO_SPECTRUM_MAX_N) {
-    const ef = eigenfree(source, c, tail, tolerance);
+    const useDct = dctApplies(source);
+    const ef = useDct ? dct(source, c, tail, tolerance) : eigenfree(source, c, tail, tolerance);
+    const what = useDct
+      ? `DCT eigenbasis route: n = ${n} is large and the operator is a union of chains, whose eigenbasis is known in closed form (O(n k^2) per evaluation after one fast transform)`
+      : `eigen-free engine: n = ${n} is large, so no spectrum is needed (O(n k) per evaluation)`;
     if ((ef.p > 0 && ef.relativeError <= AUTO_RELATIVE_TARGET) || (ef.p === 0 && ef.errorBound === 0)) {
-      return { ...ef, reason: `eigen-free engine: n = ${n} is large, so no spectrum is needed (O(n k) per evaluation)` };
+      return { ...ef, reason: what };
     }
     if (n > FAST_SPECTRUM_MAX_N) {
-      return { ...ef, reason: `eigen-free engine (small tail: relative error ${ef.relativeError.toExponential(1)}; n = ${n} is beyond the spectrum the tail engines need)` };
+      return { ...ef, reason: `${what} (small tail: relative error ${ef.relativeError.toExponential(1)}; n = ${n} is beyond the spectrum the tail engines need)` };
     }
     // a small tail at moderate n: the spectrum (O(k n^2)) buys relative accuracy below
   }

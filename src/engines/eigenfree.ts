@@ -59,6 +59,9 @@ export interface EigenfreeForm extends CharacteristicForm {
    * with slope >= (m - z)/4 (z = number of weights below tau), which adds at most a relative
    * 2 (m / (m - z)) (U tau)^(m/2) to T(U): negligible for U <= 1e-3 / tau. A weight that is exactly
    * zero (c on an eigenvalue) thus enters as log(tau) instead of -infinity and needs no special case.
+   * Where T(U) would ask for a larger U (small m, c near an eigenvalue), {@link truncationValidBelow}
+   * = 1e-3 / tau makes `integrateImhof` place the cut by the convexity bound instead, which needs
+   * no floor.
    */
   lambdaFloor: number;
 }
@@ -158,6 +161,7 @@ export function eigenfreeForm(a: BandMatrix, basis: ColumnBasis, c: number, sign
     sumLogAbsLambda,
     maxAbsLambda,
     lambdaFloor: tau,
+    truncationValidBelow: 1e-3 / tau,
     evaluate(u: number, out: Float64Array): void {
       if (u === 0) { out[0] = 0; out[1] = 0; return; }
       // B = I - i u S

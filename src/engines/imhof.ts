@@ -16,6 +16,7 @@
  */
 import { adaptiveIntegrate } from '../core/quadrature.js';
 import { exactTail } from '../core/exact-tail.js';
+import { convexityCut, probabilityTailBound } from '../core/convexity-cut.js';
 import type { CharacteristicForm, Tail, TailProbability } from '../core/types.js';
 
 /** Options shared by the Imhof-type engines. */
@@ -59,11 +60,23 @@ export function integrateImhof(form: CharacteristicForm, options: ImhofOptions =
     form.evaluate(u, out);
     return Math.sin(out[0]) / (u * Math.exp(out[1]));
   };
-  const breaks = geometricBreaks(upper, maxAbsLambda);
+  // A form with a floored weight sum (the eigen-free engine) vouches for T(U) only up to
+  // U <= validBelow; beyond it the cut is placed by the convexity bound instead, which holds for
+  // any weights (src/core/convexity-cut.ts)
+  let cutAt = upper;
+  let cutBound = truncation;
+  let extra = 0;
+  if (form.truncationValidBelow !== undefined && upper > form.truncationValidBelow) {
+    const start = Math.min(upper, Math.max(form.truncationValidBelow, 0.25 / maxAbsLambda));
+    const cut = convexityCut((u) => { extra++; form.evaluate(u, out); return out[1]; }, start, tol / 4, probabilityTailBound);
+    cutAt = cut.upper;
+    cutBound = cut.truncation;
+  }
+  const breaks = geometricBreaks(cutAt, maxAbsLambda);
   const q = adaptiveIntegrate(integrand, breaks, Math.PI * tol * 0.5, options.maxPanels ?? 4000);
   const p = 0.5 - q.value / Math.PI;
-  const errorBound = truncation + q.error / Math.PI + 4 * Number.EPSILON;
-  return { p: Math.min(1, Math.max(0, p)), errorBound, evaluations: q.evaluations, converged: q.converged };
+  const errorBound = cutBound + q.error / Math.PI + 4 * Number.EPSILON;
+  return { p: Math.min(1, Math.max(0, p)), errorBound, evaluations: q.evaluations + extra, converged: q.converged && Number.isFinite(cutBound) };
 }
 
 /** Break points 0, b, 2b, 4b, ... up to `upper`, with b a small multiple of 1 / max|lambda|. */

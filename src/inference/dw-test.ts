@@ -128,6 +128,10 @@ export interface DwPValues {
   methodReason: string;
   /** Absolute error bound of the larger of the two one-sided p-values (doubled for two-sided). */
   errorBound: number;
+  /** Absolute error bound of pPositive = P(D <= d) alone: |pPositive - exact| <= errorBoundPositive. */
+  errorBoundPositive: number;
+  /** Absolute error bound of pNegative = P(D >= d) alone: |pNegative - exact| <= errorBoundNegative. */
+  errorBoundNegative: number;
 }
 
 /** Full result of {@link exactDwTest}. */
@@ -227,6 +231,8 @@ export function pValuesFor(problem: DwProblem, d: number, alternative?: Alternat
     method: tested.method,
     methodReason: tested.reason ?? '',
     errorBound: Math.max(lower.errorBound, upper.errorBound) * (pTwo < 1 ? 2 : 1),
+    errorBoundPositive: lower.errorBound,
+    errorBoundNegative: upper.errorBound,
   };
 }
 
@@ -393,6 +399,8 @@ function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode
     const h = Math.max(1e-6, 1e3 * dAllowance) * (hi - lo);
     const slope = Math.abs(dist0.cdf(Math.min(hi, d + h)) - dist0.cdf(Math.max(lo, d - h))) / (2 * h);
     p.errorBound += 2 * slope * dAllowance * (p.pTwoSided < 1 ? 2 : 1);
+    p.errorBoundPositive += 2 * slope * dAllowance;
+    p.errorBoundNegative += 2 * slope * dAllowance;
   }
   const pValue = alternative === 'positive' ? p.pPositive : alternative === 'negative' ? p.pNegative : p.pTwoSided;
   const tailLevel = alternative === 'two-sided' ? alpha / 2 : alpha;

@@ -139,6 +139,7 @@ export function engineWords(method: string): string {
   if (method === 'imhof') return `Imhof's numerical inversion of the characteristic function, on the eigenvalues of the design ${cite('imhof-1961')}`;
   if (method === 'pan') return `Pan's finite-range formula ${cite('pan-1968', 'farebrother-1980')}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of the characteristic function, evaluated through a log-determinant without eigenvalues ${cite('imhof-1961')}`;
+  if (method === 'dct') return `Imhof's numerical inversion of the characteristic function, evaluated in the closed-form (DCT) eigenbasis of the difference operator ${cite('imhof-1961')}`;
   if (method === 'saddlepoint') return `exact numerical inversion of the distribution function on the eigenvalues of the design, along the vertical line through the saddlepoint; the saddlepoint is that of Daniels ${cite('daniels-1954')}, used only to place the line (which keeps relative accuracy in small tails), so the result is the exact inversion, not Daniels's saddlepoint approximation`;
   return plain(method);
 }

@@ -16,7 +16,7 @@ import { VERSION } from '../version.js';
 /** Fields that describe d as a test: moved under `dForReferenceOnly` when d is not valid. */
 const D_ONLY = [
   'pValue', 'pPositive', 'pNegative', 'pTwoSided', 'critical', 'method', 'methodReason', 'errorBound',
-  'nullMean', 'nullVariance', 'bounds', 'power',
+  'errorBoundPositive', 'errorBoundNegative', 'nullMean', 'nullVariance', 'bounds', 'power',
 ] as const;
 
 const POWER_KEYS = [
@@ -29,7 +29,8 @@ const KEY_ORDER: Record<string, string[]> = {
   '': [
     'packageVersion', 'd', 'n', 'k', 'm', 'lag', 'gaps', 'timeColumn', 'droppedRows', 'intercept', 'interceptAdded', 'columns',
     'coefficients', 'rSquared', 'dValid', 'alternative', 'alpha', 'pValue', 'pPositive', 'pNegative', 'pTwoSided',
-    'critical', 'decision', 'method', 'methodReason', 'errorBound', 'nullMean', 'nullVariance',
+    'critical', 'decision', 'method', 'methodReason', 'errorBound', 'errorBoundPositive', 'errorBoundNegative',
+    'nullMean', 'nullVariance',
     'bounds', 'power', 'rhoHat', 'breuschGodfrey', 'dynamic', 'dForReferenceOnly', 'warnings',
     'software', 'input', 'options',
   ],

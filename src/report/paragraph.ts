@@ -43,6 +43,7 @@ function methodPhrase(method: string): string {
   if (method === 'pan') return `Pan's finite-range representation of its distribution function ${c}`;
   if (method === 'eigenfree') return `Imhof's numerical inversion of its characteristic function, evaluated through a log-determinant ${c}`;
   if (method === 'saddlepoint') return `exact numerical inversion of its distribution function along the line through the saddlepoint (the point of Daniels's saddlepoint method ${c}, used only to place the line; no saddlepoint approximation is made)`;
+  if (method === 'dct') return `Imhof's numerical inversion of its characteristic function, evaluated in the closed-form (DCT) eigenbasis of the difference operator ${c}`;
   return `Imhof's numerical inversion of its characteristic function ${c}`;
 }
 

@@ -12,7 +12,7 @@ const CONTROLS: [RegExp, (value: string) => string][] = [
   [/--decimal (comma|point)\b/g, (v) => `"Decimal mark: ${v}" under "How to read the file"`],
   [/--decimal\b/g, () => '"Decimal mark" under "How to read the file"'],
   [/--delimiter (?:'([^']*)'|(\S+))/g, (v) => `"Field delimiter: ${v}" under "How to read the file"`],
-  [/--method (imhof|pan|eigenfree|auto)\b/g, (v) => `the engine "${v}" under "Numerical engine"`],
+  [/--method (imhof|pan|eigenfree|saddlepoint|dct|auto)\b/g, (v) => `the engine "${v}" under "Numerical engine"`],
   [/--no-intercept\b/g, () => 'unticking "Add an intercept"'],
   [/--lag\b/g, () => 'the lag'],
   [/--alpha\b/g, () => 'the significance level'],

@@ -97,6 +97,7 @@ export function engineDescription(method: string): string {
     case 'pan': return "Pan's finite-range formula (Pan 1968; Farebrother 1980)";
     case 'eigenfree': return "Imhof's inversion through a log-determinant, without eigenvalues (Imhof 1961)";
     case 'saddlepoint': return "exact numerical inversion along the line through the saddlepoint (the saddlepoint of Daniels 1954 places the line; the result is the exact inversion, not Daniels's approximation)";
+    case 'dct': return "Imhof's inversion in the closed-form (DCT) eigenbasis of the difference operator (Imhof 1961)";
     default: return method;
   }
 }

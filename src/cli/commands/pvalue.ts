@@ -53,8 +53,8 @@ export const pvalueCommand: Command = {
     }
     const p = pValuesFor(problem, d);
     if (format === 'json') {
-      const { d: dd, n: nn, k, pPositive, pNegative, pTwoSided, method, errorBound } = p;
-      io.out(JSON.stringify({ d: dd, n: nn, k, pPositive, pNegative, pTwoSided, method, errorBound }, null, 2) + '\n');
+      const { d: dd, n: nn, k, pPositive, pNegative, pTwoSided, method, errorBound, errorBoundPositive, errorBoundNegative } = p;
+      io.out(JSON.stringify({ d: dd, n: nn, k, pPositive, pNegative, pTwoSided, method, errorBound, errorBoundPositive, errorBoundNegative }, null, 2) + '\n');
     } else {
       io.out([
         `d = ${p.d.toFixed(4)}   (n = ${p.n}, k = ${p.k} columns including any intercept)`,
