@@ -100,7 +100,7 @@ lines.push('keeps relative accuracy there where it applies; the inversion on a l
 lines.push('(src/engines/saddle-contour.ts, engine `saddlepoint`) keeps it for any spectrum, ties');
 lines.push('included. In a small tail `auto` takes whichever of the two reports the smaller relative error.');
 lines.push('');
-lines.push('Target (issue: tails down to 1e-15 with relative error <= 1e-6): see the `auto` rows of the two far-tail');
+lines.push('Target (tails down to 1e-15 with relative error <= 1e-6): see the `auto` rows of the two far-tail');
 lines.push('regimes. Below 1e-15 the error is dominated by the representation of the design in double precision');
 lines.push('(each computed eigenvalue is off by ~1e-15, and a tail that small moves by a relative');
 lines.push('(m/2) delta / (nu_m - c)); the reported bound accounts for it.');

@@ -2,7 +2,7 @@
  * Size limits per engine, so that a problem too large for an engine ends in a clear SIZE_LIMIT
  * error naming the alternative instead of an out-of-memory crash or an hour of computing.
  *
- * Costs (METHODS.md sections 2-5), n observations, k columns of X, m = n - k:
+ * Costs (docs/methods.md sections 2-5), n observations, k columns of X, m = n - k:
  *   - dense spectrum (spectrum.ts): an n x n matrix A, its congruence Q'AQ and the m x m block,
  *     about 3 x 8 n^2 bytes, and O(n^3) time (Householder tridiagonalisation);
  *   - structured spectrum (fast-spectrum.ts, difference operators): O(n k) memory, O(k n^2) time;

@@ -1,6 +1,6 @@
 /**
  * Exact Durbin-Watson bounds against outside sources: the published Savin & White (1977) table
- * (values quoted in METHODS.md section 9, from memory, each confirmed by an independent computation),
+ * (values quoted in docs/methods.md section 13, from memory, each confirmed by an independent computation),
  * the Durbin & Watson (1950) bounds theorem (interlacing) on seeded random designs, numeric's
  * eigen-solver for the bounding spectra, the arcsine law (m = 2), and a standard Chebyshev identity.
  */
@@ -25,7 +25,7 @@ import { scratch } from './helpers/cli.js';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 
-/** Savin & White (1977), Econometrica 45, 1989-1996, as quoted in METHODS.md section 9 (from memory). */
+/** Savin & White (1977), Econometrica 45, 1989-1996, as quoted in docs/methods.md section 13 (from memory). */
 const SAVIN_WHITE: { alpha: number; n: number; k: number; dL: number; dU: number }[] = [
   { alpha: 0.05, n: 6, k: 1, dL: 0.610, dU: 1.400 },
   { alpha: 0.05, n: 10, k: 1, dL: 0.879, dU: 1.320 },
@@ -75,12 +75,12 @@ function randomColumns(seed: number, n: number, p: number): Record<string, numbe
   return cols;
 }
 
-/** The DCT-II eigenvector j of A, cos(pi j (t - 1/2) / n), t = 1..n (METHODS.md section 2). */
+/** The DCT-II eigenvector j of A, cos(pi j (t - 1/2) / n), t = 1..n (docs/methods.md section 2). */
 function eigenvector(n: number, j: number): number[] {
   return Array.from({ length: n }, (_, t) => Math.cos((Math.PI * j * (t + 0.5)) / n));
 }
 
-describe('Savin & White (1977) table, 5% and 1% (values quoted in METHODS.md section 9), to 0.001', () => {
+describe('Savin & White (1977) table, 5% and 1% (values quoted in docs/methods.md section 13), to 0.001', () => {
   it.each(SAVIN_WHITE)('bounds(): alpha $alpha, n $n, k\' $k', ({ alpha, n, k, dL, dU }) => {
     const b = bounds(n, k, alpha);
     expect(Math.abs(b.dL - dL)).toBeLessThanOrEqual(0.0005 + 1e-9);

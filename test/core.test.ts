@@ -61,7 +61,7 @@ describe('symmetric eigenvalues against ml-matrix (general-purpose reference lib
   });
 });
 
-describe('spectrum of M A M (METHODS.md section 2)', () => {
+describe('spectrum of M A M (docs/methods.md section 2)', () => {
   it('intercept only: nu_j = 2 - 2 cos(pi j / n), j = 1..n-1 (closed-form eigenvalues of A)', () => {
     const n = 15;
     const nu = denseSpectrum(differenceMatrix(differencePairs(n)), householderQR(new Float64Array(n).fill(1), n, 1));
@@ -204,7 +204,7 @@ describe('the null distribution object', () => {
   });
 });
 
-describe('published bounds (Savin & White 1977, Econometrica 45, quoted in METHODS.md section 9)', () => {
+describe('published bounds (Savin & White 1977, Econometrica 45, quoted in docs/methods.md section 13)', () => {
   const rows: [number, number, number, number, number][] = [
     [0.05, 6, 1, 0.61, 1.4], [0.05, 10, 1, 0.879, 1.32], [0.05, 15, 1, 1.077, 1.361], [0.05, 20, 1, 1.201, 1.411],
     [0.05, 20, 2, 1.1, 1.537], [0.05, 20, 5, 0.792, 1.991], [0.05, 30, 1, 1.352, 1.489], [0.05, 30, 3, 1.214, 1.65],

@@ -1,5 +1,5 @@
 /**
- * Dynamic models (METHODS.md section 8): the reference distributions written for the asymptotic
+ * Dynamic models (docs/methods.md section 8): the reference distributions written for the asymptotic
  * tests (normal, chi-square, F, Student t) against jstat, closed forms and values computed with
  * mpmath 1.3.0 at 40 digits; detection of a lagged dependent regressor; Durbin's h, the
  * Breusch-Godfrey LM test and the residual t-test against an explicit second computation with

@@ -1,5 +1,5 @@
 /**
- * The eigen-free characteristic form (METHODS.md section 5) against the eigenvalue form: weights from
+ * The eigen-free characteristic form (docs/methods.md section 5) against the eigenvalue form: weights from
  * a dense reference spectrum of Z'AZ computed by ml-matrix (a general-purpose reference library:
  * QrDecomposition for Q and Z, EigenvalueDecomposition for the spectrum), and, at n = 100000,
  * against the closed-form spectrum of A (lambda_j = 2 - 2 cos(pi j / n), DCT-II eigenvectors).

@@ -3,7 +3,7 @@
  * references from the general-purpose libraries ml-matrix (QrDecomposition, EigenvalueDecomposition)
  * and numeric (numeric.eig), and against closed forms: with an intercept the constant vector is the
  * j = 0 eigenvector of A, and with X spanned by DCT-II eigenvectors of A the projected spectrum is A's
- * spectrum without those eigenvalues (Durbin & Watson 1950; METHODS.md section 2).
+ * spectrum without those eigenvalues (Durbin & Watson 1950; docs/methods.md section 2).
  */
 import { describe, expect, it } from 'vitest';
 import { Matrix, EigenvalueDecomposition } from 'ml-matrix';

@@ -1,8 +1,8 @@
 /**
- * Lag-j statistics (Wallis 1972, j = 4 for quarterly data) and gaps in time (METHODS.md section 1),
+ * Lag-j statistics (Wallis 1972, j = 4 for quarterly data) and gaps in time (docs/methods.md section 1),
  * checked against outside sources: the spectrum against numeric's and ml-matrix's eigen-solvers on
  * the dense matrices, closed forms from published mathematics (eigenvalues of the path Laplacian;
- * the partial-fraction law for weights of even multiplicity, METHODS.md section 9), the mpmath
+ * the partial-fraction law for weights of even multiplicity, docs/methods.md section 13), the mpmath
  * reference JSON (test/ref/), and seeded simulation; then the CLI contract for --lag and --time.
  */
 import { describe, expect, it } from 'vitest';
@@ -85,7 +85,7 @@ describe('the lag-4 and gapped spectra against numeric and ml-matrix on the dens
   });
 });
 
-describe('lag-2 ties against the partial-fraction closed form for weights of even multiplicity (METHODS.md section 9)', () => {
+describe('lag-2 ties against the partial-fraction closed form for weights of even multiplicity (docs/methods.md section 13)', () => {
   it('intercept + parity dummy, n = 24, lag 2: every nu has multiplicity 2, and P(d <= c) matches to 1e-10 at five points', () => {
     const n = 24;
     const problem = prepareProblem({ odd: seq(n).map((t) => t % 2) }, n, { lag: 2 });

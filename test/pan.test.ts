@@ -16,7 +16,7 @@ const { jStat } = require('jstat') as { jStat: { beta: { cdf(x: number, a: numbe
 // ---------------------------------------------------------------------------------------------
 // helpers
 
-/** Durbin-Watson lower-bound spectrum (METHODS.md section 2): 2 - 2 cos(pi i / n), i = from..to. */
+/** Durbin-Watson lower-bound spectrum (docs/methods.md section 2): 2 - 2 cos(pi i / n), i = from..to. */
 function dwSpectrum(n: number, from: number, to: number): Float64Array {
   const out = new Float64Array(to - from + 1);
   for (let i = from; i <= to; i++) out[i - from] = 2 - 2 * Math.cos((Math.PI * i) / n);
@@ -24,7 +24,7 @@ function dwSpectrum(n: number, from: number, to: number): Float64Array {
 }
 
 /**
- * Independent evaluation of Imhof's integral (Imhof 1961, Biometrika 48, 419-426; METHODS.md
+ * Independent evaluation of Imhof's integral (Imhof 1961, Biometrika 48, 419-426; docs/methods.md
  * section 3): P(d <= c) = P(Q <= 0) = 1/2 - (1/pi) Integral_0^inf sin(theta(u)) / (u rho(u)) du,
  * lambda = nu - c. Simple and slow: the substitution u = s exp((pi/2) sinh(tau)) (exp-sinh) and
  * the trapezoidal rule in tau, halving the step until two estimates agree to 1e-13.
@@ -72,7 +72,7 @@ function expectNotApplicable(fn: () => unknown): DwError {
 
 // ---------------------------------------------------------------------------------------------
 
-describe('closed forms (METHODS.md section 9)', () => {
+describe('closed forms (docs/methods.md section 13)', () => {
   it('m = 2 follows the arcsine law P(d <= c) = (2/pi) asin(sqrt((c - nu1)/(nu2 - nu1))), both tails', () => {
     for (const [a, b] of [[0, 1], [0.3, 3.7], [1.9, 2.1]]) {
       const nu = Float64Array.of(a, b);
@@ -234,7 +234,7 @@ describe('edge cases', () => {
   });
 });
 
-describe('Savin & White (1977) bounds tables (METHODS.md section 9)', () => {
+describe('Savin & White (1977) bounds tables (docs/methods.md section 13)', () => {
   // alpha, n, k', d_L, d_U (Econometrica 45, 1989-1996)
   const rows: Array<[number, number, number, number, number]> = [
     [0.05, 6, 1, 0.61, 1.4], [0.05, 10, 1, 0.879, 1.32], [0.05, 15, 1, 1.077, 1.361],
@@ -256,7 +256,7 @@ describe('Savin & White (1977) bounds tables (METHODS.md section 9)', () => {
     let s2 = 0;
     for (const v of nu) { s1 += v; s2 += v * v; }
     const mean = s1 / m;
-    const sd = Math.sqrt((2 * (m * s2 - s1 * s1)) / (m * m * (m + 2))); // METHODS.md section 2
+    const sd = Math.sqrt((2 * (m * s2 - s1 * s1)) / (m * m * (m + 2))); // docs/methods.md section 2
     const z = alpha === 0.05 ? -1.645 : -2.326;
     let lo = Math.max(nu[0], mean + z * sd - 0.02);
     let hi = mean + z * sd + 0.02;

@@ -211,7 +211,7 @@ describe('power against the mpmath reference (test/ref/reference.json, field "po
   });
 });
 
-describe('power at rho = 0 is the size of the test (METHODS.md section 6), eigen-free route forced', () => {
+describe('power at rho = 0 is the size of the test (docs/methods.md section 6), eigen-free route forced', () => {
   it('n = 250, three random regressors and gapped times: |power(0) - alpha| below 1e-9 for the three alternatives', () => {
     const n = 250;
     const times = gappedTimes(23, n);

@@ -1,5 +1,5 @@
 /**
- * Exact power against AR(1) errors (METHODS.md section 6), checked against outside sources:
+ * Exact power against AR(1) errors (docs/methods.md section 6), checked against outside sources:
  * the null distribution itself (power at rho = 0 is alpha), an independent dense computation of
  * the weights with ml-matrix (Cholesky of S_rho, explicit M, symmetric eigen-solver), the mpmath
  * reference JSON (test/ref/), and seeded simulation of AR(1) errors with a stationary start.
@@ -78,7 +78,7 @@ function simulatePower(opts: {
   return hits / reps;
 }
 
-describe('power at rho = 0 is the size of the test (METHODS.md section 6: the weights reduce to nu - c)', () => {
+describe('power at rho = 0 is the size of the test (docs/methods.md section 6: the weights reduce to nu - c)', () => {
   const cases: [string, Record<string, number[]>, number, boolean][] = [
     ['intercept + trend, n = 20', { t: trend(20) }, 20, true],
     ['intercept + 3 random columns, n = 30', randomColumns(11, 30, 3), 30, true],

@@ -4,7 +4,7 @@
  * integrates to 1 within 1e-6, matches a closed form point by point, peaks where the numbers say,
  * and every mark sits at the x position the axis gives for its number.
  *
- * Closed form (published mathematics, see METHODS.md section 9): with two distinct eigenvalues a
+ * Closed form (published mathematics, see docs/methods.md section 13): with two distinct eigenvalues a
  * (multiplicity p) and b (multiplicity q), d = a + (b - a) B with B ~ Beta(q/2, p/2); the beta
  * density, quantiles and mode come from jstat (a general-purpose library), the mode formula
  * (alpha - 1)/(alpha + beta - 2) is the textbook one.

@@ -1,7 +1,7 @@
 /**
  * The Durbin-Watson bounds d_L and d_U (Durbin & Watson 1950, Biometrika 37, 409-428; 1951,
  * Biometrika 38, 159-178) computed exactly for any n, k' and alpha: the alpha-quantiles of the
- * lower- and upper-bound statistics of METHODS.md section 2, whose spectra are known in closed form
+ * lower- and upper-bound statistics of docs/methods.md section 2, whose spectra are known in closed form
  * (spectra.ts), solved by Imhof's integral (Imhof 1961) on a closed form of the characteristic
  * function (cosine-form.ts) or, on request, by any engine of the library. For every design X with an intercept and k' further regressors the exact lower
  * critical value of d at level alpha lies in [d_L, d_U]; that is the bounds test of the printed
@@ -68,7 +68,7 @@ export const checkBoundsAlpha: (alpha: number) => void = checkAlpha;
  * @example
  * ```ts
  * bounds(20, 1, 0.05); // { dL: 1.2015..., dU: 1.4107..., m: 18, ... } (Savin & White 1977: 1.201, 1.411)
- * bounds(20, 1, 0.05, { intercept: false }); // the no-intercept bounds (METHODS.md section 2)
+ * bounds(20, 1, 0.05, { intercept: false }); // the no-intercept bounds (docs/methods.md section 2)
  * ```
  */
 export function bounds(n: number, kPrime: number, alpha: number, options: BoundsOptions = {}): DwBounds {

@@ -3,7 +3,7 @@
  *
  * The bounding spectra (spectra.ts) are runs of consecutive eigenvalues lambda_j = 2 - 2 cos(pi j / n)
  * of the difference matrix. For Q = sign * sum_{j in S} (lambda_j - c) z_j^2, Imhof's integrand
- * (Imhof 1961, Biometrika 48, 419-426; METHODS.md section 3) needs
+ * (Imhof 1961, Biometrika 48, 419-426; docs/methods.md section 3) needs
  *
  *   G_S(u) = sum_{j in S} log(1 + i u (lambda_j - c)),   theta = sign Im G_S / 2,   log rho = Re G_S / 2.
  *

@@ -1,5 +1,5 @@
 /**
- * Exact Durbin-Watson bounds for any n, k' and alpha (Durbin & Watson 1950, 1951; METHODS.md
+ * Exact Durbin-Watson bounds for any n, k' and alpha (Durbin & Watson 1950, 1951; docs/methods.md
  * section 2): the bounding spectra, d_L and d_U, the bounds-test zone of an observed d with its
  * exact resolution, and whole tables computed on the spot.
  */

@@ -2,7 +2,7 @@
  * Quantiles of a bounding statistic by Imhof's integral on the closed-form characteristic form
  * (cosine-form.ts), with a root finder that can start from a nearby known value: the table of
  * bounds solves thousands of neighbouring quantiles, and a warm start from the previous n cuts the
- * number of integrals per quantile from about fifteen to about five (METHODS.md section 7).
+ * number of integrals per quantile from about fifteen to about five (docs/methods.md section 7).
  */
 import { DwError } from '../errors.js';
 import type { Tail, TailProbability } from '../core/types.js';

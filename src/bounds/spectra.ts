@@ -1,6 +1,6 @@
 /**
  * The spectra of the Durbin-Watson bounds (Durbin & Watson 1950, Biometrika 37, 409-428;
- * METHODS.md section 2). The first-difference matrix A = D'D has the eigenvalues
+ * docs/methods.md section 2). The first-difference matrix A = D'D has the eigenvalues
  *
  *   lambda_j = 2 - 2 cos(pi j / n) = 4 sin^2(pi j / (2n)),   j = 0..n-1,
  *
@@ -113,7 +113,7 @@ function spectrumOf(n: number, idx: BoundIndices): Float64Array {
 
 /**
  * The ascending spectrum of the lower bound d_L for n observations and k' regressors other than
- * the intercept (METHODS.md section 2).
+ * the intercept (docs/methods.md section 2).
  *
  * @example
  * ```ts
@@ -127,7 +127,7 @@ export function lowerBoundSpectrum(n: number, kPrime: number, intercept = true):
 
 /**
  * The ascending spectrum of the upper bound d_U for n observations and k' regressors other than
- * the intercept (METHODS.md section 2).
+ * the intercept (docs/methods.md section 2).
  *
  * @example
  * ```ts

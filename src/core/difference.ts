@@ -1,5 +1,5 @@
 /**
- * The difference operator behind d (METHODS.md section 1).
+ * The difference operator behind d (docs/methods.md section 1).
  *
  *   d = sum over pairs (s, t) of (e_t - e_s)^2 / sum e_t^2 = e'A e / e'e,   A = D'D,
  *

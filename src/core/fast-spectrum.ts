@@ -1,5 +1,5 @@
 /**
- * The spectrum nu_1 <= ... <= nu_m of Z'AZ (METHODS.md section 2) without an O(n^3) step, for
+ * The spectrum nu_1 <= ... <= nu_m of Z'AZ (docs/methods.md section 2) without an O(n^3) step, for
  * every operator built by `differenceMatrix`.
  *
  * Such an A is a disjoint union of chains (path graphs): lag j splits the series into j
@@ -7,7 +7,7 @@
  *
  *   lambda_j = 2 - 2 cos(pi j / L) = 4 sin^2(pi j / (2L)),   v_j(t) = sqrt((2 - [j = 0]) / L) cos(pi j (t + 1/2) / L),
  *
- * (the DCT-II basis; METHODS.md section 2 for L = n). In that eigenbasis A is diagonal and the
+ * (the DCT-II basis; docs/methods.md section 2 for L = n). In that eigenbasis A is diagonal and the
  * columns q_1..q_k of Q become x_1..x_k = V'q. The complement of col(Q) is reached by removing one
  * direction at a time: the compression of diag(d) to the complement of a unit vector x has the
  * eigenvalues that solve the secular equation

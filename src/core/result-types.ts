@@ -25,7 +25,7 @@ export interface BoundsZone {
   resolution: string;
 }
 
-/** Exact power of the test against stationary AR(1) errors for this X (METHODS.md section 6). */
+/** Exact power of the test against stationary AR(1) errors for this X (docs/methods.md section 6). */
 export interface PowerSummary {
   alpha: number;
   /** The exact critical value used (P(D <= critical) = alpha under the null). */
@@ -36,7 +36,7 @@ export interface PowerSummary {
   rhoAtTarget: number | null;
 }
 
-/** Diagnosis when the regressors include the dependent variable lagged (METHODS.md section 8). */
+/** Diagnosis when the regressors include the dependent variable lagged (docs/methods.md section 8). */
 export interface DynamicModelCheck {
   /** Name of the lagged dependent regressor. */
   laggedDependent: string;

@@ -1,5 +1,5 @@
 /**
- * The spectrum behind the exact distribution (METHODS.md section 2): the m = n - k eigenvalues
+ * The spectrum behind the exact distribution (docs/methods.md section 2): the m = n - k eigenvalues
  * nu_1 <= ... <= nu_m of Z'AZ, Z an orthonormal basis of the complement of col(X). Then
  * d = sum nu_i z_i^2 / sum z_i^2 with z ~ N(0, I_m) under the null (Durbin & Watson 1950).
  */
@@ -30,7 +30,7 @@ export function denseSpectrum(a: BandMatrix, f: HouseholderQR): Float64Array {
 }
 
 /**
- * Exact mean of d: sum nu / m (METHODS.md section 2).
+ * Exact mean of d: sum nu / m (docs/methods.md section 2).
  *
  * @example
  * ```ts

@@ -1,5 +1,5 @@
 /**
- * Shared shapes of the numerical core. Symbols follow shared/design/METHODS.md:
+ * Shared shapes of the numerical core. Symbols follow docs/methods.md:
  * `nu` the m = n - k eigenvalues of M·A on the complement of col(X), sorted ascending;
  * `c` the point at which a tail probability is wanted; `lambda` the weights `nu_i - c`.
  */
@@ -55,7 +55,7 @@ export interface ColumnBasis {
 }
 
 /**
- * What Imhof's integral needs from a quadratic form Q = sum lambda_j z_j^2 (METHODS.md sections 3
+ * What Imhof's integral needs from a quadratic form Q = sum lambda_j z_j^2 (docs/methods.md sections 3
  * and 5): the phase theta(u) = (1/2) sum arctan(lambda_j u) and the log-modulus
  * log rho(u) = (1/4) sum log(1 + lambda_j^2 u^2), plus a few constants for the truncation bound.
  * A spectral engine computes these from the weights; the eigen-free engine from a log-determinant.

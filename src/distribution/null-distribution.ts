@@ -1,5 +1,5 @@
 /**
- * The exact null distribution of d for one design (METHODS.md sections 2 and 7), with the SciPy
+ * The exact null distribution of d for one design (docs/methods.md sections 2 and 7), with the SciPy
  * convention of computing each tail directly: `sf` is P(d >= c) from its own integral, never
  * 1 - cdf, and both tails have their own inverse.
  */

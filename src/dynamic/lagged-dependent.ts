@@ -1,5 +1,5 @@
 /**
- * Detecting a lagged dependent variable among the regressors (METHODS.md section 8): a column x
+ * Detecting a lagged dependent variable among the regressors (docs/methods.md section 8): a column x
  * with x_t = y_{t-1} for every observation after the first. With such a regressor d is biased
  * towards 2 and its exact null distribution does not hold (Durbin 1970, Econometrica 38, 410-421).
  */

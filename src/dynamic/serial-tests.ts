@@ -1,6 +1,6 @@
 /**
  * Asymptotic tests for serial correlation that stay valid when a lagged dependent variable is
- * among the regressors (METHODS.md section 8). Formulas as used here (from memory, sources named):
+ * among the regressors (docs/methods.md section 8). Formulas as used here (from memory, sources named):
  *
  *  - Durbin's h (Durbin 1970, Econometrica 38, 410-421): h = r1 sqrt(n / (1 - n V)), with V the
  *    estimated OLS variance of the coefficient of y_{t-1} and r1 the first-order autocorrelation of

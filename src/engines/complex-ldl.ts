@@ -1,7 +1,7 @@
 /**
  * Log-determinants of complex symmetric matrices from LDL' factorisations without pivoting, shared
  * by the eigen-free engine (src/engines/eigenfree.ts) and the eigen-free power route
- * (src/power/eigenfree-power.ts); METHODS.md section 5. Each pivot has positive real part there
+ * (src/power/eigenfree-power.ts); docs/methods.md section 5. Each pivot has positive real part there
  * (the matrices are accretive: Hermitian part positive definite), so the sum of the principal
  * logarithms of the pivots is the continuous branch of log det (Imhof 1961, Biometrika 48,
  * 419-426, for why the continuous branch is the one the integrand needs). Two pieces:

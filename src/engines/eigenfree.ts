@@ -1,6 +1,6 @@
 /**
  * The characteristic form of the Durbin-Watson quadratic form without any eigenvalues
- * (METHODS.md section 5). For the weights lambda_j = sign (nu_j - c), nu_j the eigenvalues of A on
+ * (docs/methods.md section 5). For the weights lambda_j = sign (nu_j - c), nu_j the eigenvalues of A on
  * the complement of col(X), Imhof's phase and modulus (Imhof 1961, Biometrika 48, 419-426) are
  *
  *   theta(u) = -(1/2) Im L(u),   log rho(u) = (1/2) Re L(u),   L(u) = sum_j log(1 - i u lambda_j),

@@ -4,8 +4,8 @@
  *   P(Q > 0) = 1/2 + (1/pi) Integral_0^inf sin(theta(u)) / (u rho(u)) du,
  *   theta(u) = (1/2) sum arctan(lambda_j u),   rho(u) = prod (1 + lambda_j^2 u^2)^(1/4).
  *
- * With lambda_j = nu_j - c, P(d <= c) = P(Q <= 0) (METHODS.md section 2). The integral is cut at U
- * with the truncation bound (METHODS.md section 3)
+ * With lambda_j = nu_j - c, P(d <= c) = P(Q <= 0) (docs/methods.md section 2). The integral is cut at U
+ * with the truncation bound (docs/methods.md section 3)
  *
  *   T(U) = 1 / (pi (s/2) U^(s/2) prod_{j in S} |lambda_j|^(1/2))   for any subset S of s weights,
  *

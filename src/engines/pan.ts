@@ -1,6 +1,6 @@
 /**
  * Pan's finite-range formula (Pan Jie-Jian 1968, Selected Transl. Math. Statist. Probab. 7,
- * 281-292; as an algorithm Farebrother 1980, Appl. Statist. 29, 224-227, AS 153), METHODS.md
+ * 281-292; as an algorithm Farebrother 1980, Appl. Statist. 29, 224-227, AS 153), docs/methods.md
  * section 4. For d = sum nu_i z_i^2 / sum z_i^2 with distinct nu_1 < ... < nu_m:
  *
  *   P(d <= c) = (1/pi) sum_{odd r, nu_r < c} (-1)^((r-1)/2) I_r,

@@ -1,6 +1,6 @@
 /**
  * Exact power without eigenvalues: the characteristic form of d's distribution under AR(1) (or
- * seasonal) errors from banded factorisations, O(n k (k + p)) per evaluation (METHODS.md sections 5
+ * seasonal) errors from banded factorisations, O(n k (k + p)) per evaluation (docs/methods.md sections 5
  * and 6; Imhof 1961, Biometrika 48, 419-426, for the integral; the Schur-complement and
  * determinant identities are standard linear algebra).
  *

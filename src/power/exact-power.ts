@@ -1,6 +1,6 @@
 /**
  * Exact power of the Durbin-Watson test against stationary AR(1) errors for the caller's own X
- * (METHODS.md section 6; the method of Imhof 1961 applied to the alternative distribution, as in
+ * (docs/methods.md section 6; the method of Imhof 1961 applied to the alternative distribution, as in
  * the power studies that followed Durbin & Watson 1971):
  *
  *   power(rho) = P(d <= d*_alpha | rho),   P(d <= c | rho) = P( sum_i w_i z_i^2 <= 0 ),
@@ -16,7 +16,7 @@
  *   - dense (weights.ts): the weights from an eigen-decomposition, O(n^2 k + m^3) per rho, exact and
  *     fast for small n; limited to n <= POWER_SIZE_LIMIT;
  *   - eigen-free (eigenfree-power.ts): log det(I - iu L'CL) from banded factorisations, because
- *     S_rho^-1 is tridiagonal (METHODS.md sections 5 and 6), O(n k (k + lag)) per integrand
+ *     S_rho^-1 is tridiagonal (docs/methods.md sections 5 and 6), O(n k (k + lag)) per integrand
  *     evaluation; every n up to POWER_MAX_N (src/limits.ts). A probability that Chernoff's bound
  *     puts within a tenth of the tolerance of 0 or 1 is settled by the bound.
  * `auto` takes the dense route up to n = max(POWER_DENSE_MAX_N, 25 k) (at most POWER_SIZE_LIMIT) and

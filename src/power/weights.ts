@@ -1,5 +1,5 @@
 /**
- * The weights of d's distribution under AR(1) errors (METHODS.md section 6).
+ * The weights of d's distribution under AR(1) errors (docs/methods.md section 6).
  *
  * With u ~ N(0, S_rho), S_rho[i, j] = rho^|t_i - t_j| / (1 - rho^2) (stationary AR(1) errors), and
  * Z an orthonormal basis of the complement of col(X), the residuals are e = Z w with w = Z'u ~
@@ -17,7 +17,7 @@
  *
  * Cost per rho: O(n^2 k) for Z'SZ by two-sided Householder reflections, O(m^3) for the Cholesky
  * factor, the products and the eigenvalues. The eigen-free route for large n, which needs no
- * weights because S_rho^-1 is tridiagonal (METHODS.md section 5), is in eigenfree-power.ts.
+ * weights because S_rho^-1 is tridiagonal (docs/methods.md section 5), is in eigenfree-power.ts.
  */
 import { DwError } from '../errors.js';
 import { bandToDense } from '../core/difference.js';

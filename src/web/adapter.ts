@@ -5,9 +5,9 @@
  * off, its function returns null and the page says "not part of this build". Nothing here computes
  * a statistic: every number comes from the library.
  *
- * The lines marked "REPORTS" depend on src/report (issue 5), those marked "POWER" on src/power
- * (issue 7). To build the page without one of them: remove its marked import, set its
- * capabilities to false, and replace each of its other marked lines by `return null;`.
+ * The lines marked "REPORTS" depend on src/report, those marked "POWER" on src/power. To build the
+ * page without one of them: remove its marked import, set its capabilities to false, and replace
+ * each of its other marked lines by `return null;`.
  */
 import { runExactDwTest, type DwTestInput, type DwTestResult } from '../inference/dw-test.js';
 import { prepareProblem, type DwProblem } from '../inference/problem.js';
@@ -69,7 +69,7 @@ export interface Paragraph {
   latex: string | null;
 }
 
-/** Exact power of the test at one rho (METHODS.md section 6), as computed by the library. */
+/** Exact power of the test at one rho (docs/methods.md section 6), as computed by the library. */
 export interface PowerAtRho {
   rho: number;
   power: number;

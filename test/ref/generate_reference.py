@@ -8,13 +8,13 @@ descriptions). Run from the repository root:
     nice python3 test/ref/generate_reference.py
     nice python3 test/ref/generate_reference.py --out /tmp/part.json trend-n20 gaps-n27   # subset
 
-Notation follows shared/design/METHODS.md: X (n x k), A = D'D for lag J (and optional times),
+Notation follows docs/methods.md: X (n x k), A = D'D for lag J (and optional times),
 Z an orthonormal basis of the complement of col(X), nu = eig(Z'AZ) (m = n - k values, ascending),
 lambda_i = nu_i - c, P(d <= c) = P(sum lambda_i z_i^2 <= 0).
 
 Every probability is computed by Imhof's integral (primary value, the one stored) and checked
 against at least one second method:
-  * Pan's finite-range form (METHODS.md section 4) when the spectrum has no ties,
+  * Pan's finite-range form (docs/methods.md section 4) when the spectrum has no ties,
   * closed forms for special spectra (m = 2 arcsine law; all multiplicities even: partial
     fractions of the Laplace transform, generalised to repeated poles),
   * Pan's form in the limit of split ties (Richardson extrapolation) when some multiplicity

@@ -5,7 +5,7 @@ test/pan.test.ts, written to test/ref/pan-tails.json.
 
 How the values are computed (mpmath 1.3.0, 50 significant digits):
 
-* P(d <= c) by Pan's finite-range formula (METHODS.md section 4),
+* P(d <= c) by Pan's finite-range formula (docs/methods.md section 4),
       P(d <= c) = (1/pi) sum_{odd r, nu_r < c} (-1)^((r-1)/2)
                   Integral_{nu_r}^{min(nu_{r+1}, c)} (c - w)^((m-2)/2) prod_i |w - nu_i|^(-1/2) dw,
   each interval mapped to a smooth integrand (w = mid - half cos t on a full interval,
@@ -14,7 +14,7 @@ How the values are computed (mpmath 1.3.0, 50 significant digits):
   with its own error estimate, which must be below 10^(15 - digits) of the sum of |terms|.
   At 50 digits the cancellation in the alternating sum is irrelevant. P(d >= c) is the same
   formula on the mirrored spectrum (nu -> -nu, c -> -c).
-* Independent check of every value with m <= 30: Imhof's integral (Imhof 1961, METHODS.md
+* Independent check of every value with m <= 30: Imhof's integral (Imhof 1961, docs/methods.md
   section 3), P(d <= c) = 1/2 - (1/pi) Integral_0^inf sin(theta(u)) / (u rho(u)) du with
   lambda = nu - c, integrated by mpmath.quad on [0, inf) split at multiples of 1/max|lambda|,
   again at 50 digits. The script stops if the two disagree by more than 1e-9 relative.
@@ -24,7 +24,7 @@ How the values are computed (mpmath 1.3.0, 50 significant digits):
   (round-trips exactly).
 
 Spectra: Durbin-Watson lower-bound spectra nu_i = 2 - 2 cos(pi i / n), i = 1..n - k' - 1
-(METHODS.md section 2) for (n, k') = (12, 1) (m = 10) and (32, 1) (m = 30), an irregular
+(docs/methods.md section 2) for (n, k') = (12, 1) (m = 10) and (32, 1) (m = 30), an irregular
 spectrum with m = 12, the n = 26 spectrum (m = 24) at fixed points across the support, and,
 for over- and underflow, the n = 302 spectrum (m = 300) at fixed points near nu_1 and nu_m
 (30 digits for these, no Imhof check).
