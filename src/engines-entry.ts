@@ -21,6 +21,7 @@
  * ```
  *
  * @packageDocumentation
+ * @module exact-dw/engines
  */
 export type { BandMatrix, ColumnBasis, CharacteristicForm, EngineName, MethodChoice, Tail, TailProbability } from './core/types.js';
 

@@ -8,6 +8,7 @@
  * advanced use in `exact-dw/engines`. Everything else is internal and may change.
  *
  * @packageDocumentation
+ * @module exact-dw
  */
 
 // the test

@@ -14,6 +14,7 @@
  * ```
  *
  * @packageDocumentation
+ * @module exact-dw/report
  */
 export { renderText } from './report/text.js';
 export { renderMarkdown } from './report/markdown.js';
