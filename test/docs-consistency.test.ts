@@ -22,6 +22,7 @@ import { MAX_TABLE_CELLS, MAX_TABLE_WORK } from '../src/bounds/table.js';
 import { CONDITION_LIMIT, CONDITION_WARNING, RANK_TOLERANCE } from '../src/model/design.js';
 import { D_ROUNDING_LIMIT } from '../src/model/ols.js';
 import { SYSTEM_CHROMIUM } from './helpers/browser.js';
+import { THREAD_MIN_ROWS } from '../src/cli/batch-pool.js';
 import { cli, scratch } from './helpers/cli.js';
 import { writeFileSync } from 'node:fs';
 
@@ -35,7 +36,7 @@ const pkg = JSON.parse(read('package.json')) as { scripts: Record<string, string
 const CONSTANTS: Record<string, number> = {
   DENSE_SPECTRUM_MAX_N, STRUCTURED_SPECTRUM_MAX_N, FAST_SPECTRUM_MAX_N, PAN_MAX_M, EIGENFREE_MAX_N, DCT_MAX_N, POWER_MAX_N,
   MEMORY_BUDGET_BYTES, AUTO_SPECTRUM_MAX_N, POWER_SIZE_LIMIT, POWER_DENSE_MAX_N, MAX_BOUNDS_N, MAX_TABLE_CELLS, MAX_TABLE_WORK,
-  CONDITION_LIMIT, CONDITION_WARNING, RANK_TOLERANCE, D_ROUNDING_LIMIT,
+  CONDITION_LIMIT, CONDITION_WARNING, RANK_TOLERANCE, D_ROUNDING_LIMIT, THREAD_MIN_ROWS,
 };
 
 /** A number as the documents write it: 1000000, 100_000, 10^6, 3 x 10^5, 1e7, 1e+7, 1 GiB. */
@@ -208,6 +209,7 @@ describe('size limits quoted in the documents equal the constants', () => {
     ['docs/errors-and-limits.md', /"limited to n = (\d+)"/, 'DENSE_SPECTRUM_MAX_N'],
     ['docs/errors-and-limits.md', /"m = n - k = (\d+)"/, 'PAN_MAX_M'],
     ['docs/errors-and-limits.md', /"beyond every engine", "n = (\d+)"/, 'DCT_MAX_N'],
+    ['docs/batch-performance.md', /one thread per core for files of more than (\d+) lines/, 'THREAD_MIN_ROWS'],
     ['docs/errors-and-limits.md', /`auto` takes it only for n <= max\((\d+) \(`POWER_DENSE_MAX_N`\)/, 'POWER_DENSE_MAX_N'],
   ];
   it.each(PROSE)('%s: %s equals %s', (file, pattern, constant) => {
