@@ -84,7 +84,7 @@ describe('public API surface (test/api-surface.json; see the top of this file to
 
   it('the root stays small and the subpaths do not repeat it', () => {
     // a guard against re-exporting internals wholesale (export * from a folder) into the root
-    expect(surface['.'].length).toBeLessThanOrEqual(80);
+    expect(surface['.'].length).toBeLessThanOrEqual(100); // 77 names (values and types) today
     const rootNames = new Set(surface['.'].map((s) => s.split(':')[0]));
     const reportValues = surface['./report'].filter((s) => !/: (type|interface)$/.test(s)).map((s) => s.split(':')[0]);
     expect(reportValues.filter((n) => rootNames.has(n))).toEqual([]);
