@@ -145,15 +145,14 @@ export function labelRows(xs: number[], widths: number[], gap = 6): number[] {
  * A publication-quality SVG of the exact null density of d for the design of `result`, with the
  * observed d, the exact critical value(s), the bounds d_L and d_U (when the result has them)
  * and the rejection region of the chosen alternative. `distribution` must be the null
- * distribution of the same design (for a CSV run: `prepareProblem(x, n, options).distribution`).
- * Refuses (DwError OPTION_CONFLICT) when the model has a lagged dependent variable, because d is
+ * distribution of the same design: `designDistribution(x, n, options)` (root API) with the
+ * regressors, lag and times the test used. Refuses (DwError OPTION_CONFLICT) when the model has a lagged dependent variable, because d is
  * then not a valid test and a figure of its null distribution would mislead.
  *
  * @example
  * ```ts
- * const problem = prepareProblem(x, n);
  * const result = exactDwTest({ y, x });
- * writeFileSync('dw-density.svg', renderDensitySvg(result, problem.distribution));
+ * writeFileSync('dw-density.svg', renderDensitySvg(result, designDistribution(x, result.n)));
  * ```
  */
 export function renderDensitySvg(result: DwTestResult, distribution: DwNullDistribution, options: DensityPlotOptions = {}): string {
