@@ -5,7 +5,8 @@
  * @packageDocumentation
  */
 export { DwError, isDwError, type DwErrorCode, type DwErrorDetail } from './errors.js';
-export type { EngineName, MethodChoice, Tail, TailProbability, BandMatrix, ColumnBasis, CharacteristicForm } from './core/types.js';
+export type { EngineName, EngineChoice, MethodChoice, Tail, TailProbability, BandMatrix, ColumnBasis, CharacteristicForm } from './core/types.js';
+export type { BoundsOutcome } from './core/result-types.js';
 export { differencePairs, differenceMatrix, durbinWatson, bandToDense, bandMultiply, type DifferencePairs } from './core/difference.js';
 export { householderQR, columnBasis, applyQ, applyQt, type HouseholderQR } from './core/qr.js';
 export { denseSpectrum, spectrumMean, spectrumVariance } from './core/spectrum.js';
@@ -33,7 +34,7 @@ export * from './report/index.js';
 export { VERSION } from './version.js';
 export {
   exactPower, powerForProblem, alternativeTail, autoPowerRoute, POWER_SIZE_LIMIT, POWER_DENSE_MAX_N,
-  type ExactPower, type ExactPowerInput, type PowerOptions, type PowerPoint, type PowerRoute,
+  type ExactPower, type ExactPowerInput, type PowerOptions, type PowerPoint, type PowerRoute, type PowerNote,
 } from './power/exact-power.js';
 export {
   alternativeStructure, alternativeForm, eigenfreeAlternativeTail, chernoffTail, type AlternativeForm, type AlternativeStructure,
@@ -42,7 +43,7 @@ export { powerWeights, errorCovariance, type ErrorProcess } from './power/weight
 export { detectLaggedDependent } from './dynamic/lagged-dependent.js';
 export {
   dynamicModelCheck, serialCorrelationTests, durbinH, breuschGodfrey, residualT,
-  type DynamicDiagnosis, type DurbinH, type BreuschGodfrey, type ResidualT,
+  type DynamicDiagnosis, type DurbinH, type DurbinHStatus, type DynamicNote, type BreuschGodfrey, type ResidualT,
 } from './dynamic/serial-tests.js';
 export { normalCdf, normalSf, chiSquareSf, fSf, studentTSf } from './dynamic/tails.js';
 export { contourTail } from './engines/saddle-contour.js';
@@ -63,5 +64,6 @@ export { seriesAnswer, densityCeiling, CEILING_MIN_M, type SeriesAnswer } from '
 export { renderBatch, renderBatchCsv, renderBatchMarkdown, renderBatchLatex, renderBatchJson, BATCH_FORMATS, type BatchFormat } from './batch/render.js';
 export { preparePanel, reorder, ENTITY_COLUMN_PREFIX, type PanelInput, type PanelSummary, type PreparedPanel } from './panel/panel.js';
 export { noteText, ADJUSTMENT_NAMES, type Note } from './report/wording.js';
+export type { DwSuggestion, DwSuggestedOption } from './errors.js';
 export type { PanelNote, BatchNote } from './inference/warnings.js';
 export type { DesignReuse } from './inference/dw-test.js';

@@ -5,7 +5,7 @@
  */
 import { DwError } from '../errors.js';
 import { durbinWatson, differencePairs } from '../core/difference.js';
-import type { EngineName, MethodChoice } from '../core/types.js';
+import type { EngineChoice, EngineName, MethodChoice } from '../core/types.js';
 import { fitLeastSquares, type Coefficient } from '../model/ols.js';
 import { designErrorAllowance, rowCount, type RegressorInput } from '../model/design.js';
 import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
@@ -124,8 +124,8 @@ export interface DwPValues {
   pTwoSided: number;
   /** Engine that computed the p-values. */
   method: EngineName;
-  /** Why that engine answered. */
-  methodReason: string;
+  /** Why the `auto` chooser let that engine answer, as a typed code (null when the engine was named); words in src/report/wording.ts. */
+  methodChoice: EngineChoice | null;
   /** Absolute error bound of the larger of the two one-sided p-values (doubled for two-sided). */
   errorBound: number;
   /** Absolute error bound of pPositive = P(D <= d) alone: |pPositive - exact| <= errorBoundPositive. */
@@ -229,7 +229,7 @@ export function pValuesFor(problem: DwProblem, d: number, alternative?: Alternat
     pNegative: upper.p,
     pTwoSided: pTwo,
     method: tested.method,
-    methodReason: tested.reason ?? '',
+    methodChoice: tested.reason ?? null,
     errorBound: Math.max(lower.errorBound, upper.errorBound) * (pTwo < 1 ? 2 : 1),
     errorBoundPositive: lower.errorBound,
     errorBoundNegative: upper.errorBound,
@@ -428,8 +428,7 @@ function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, panelMode
       : null;
     if (check) {
       dynamic = check;
-      warnings.push({ code: 'D_NOT_VALID_LAGGED_DEPENDENT', column: check.laggedDependent, how: check.how, hDefined: check.durbinH.h !== null, bgOrder: check.breuschGodfrey.order });
-      if (check.notes.length > 0) warnings.push({ code: 'LAGGED_DEPENDENT_MISMATCH', column: check.laggedDependent });
+      warnings.push(...check.notes);
     } else {
       // the same Breusch-Godfrey test as for a dynamic model (src/dynamic/serial-tests.ts), next to d
       bg = breuschGodfrey(problem.factored, residuals, input.bgOrder ?? 1, times);
@@ -503,7 +502,7 @@ export function checkResiduals(problem: DwProblem, e: Float64Array): { residuals
   if (drift > RESIDUAL_DRIFT_LIMIT) {
     throw new DwError('RESIDUALS_NOT_FROM_DESIGN',
       `These residuals are not least-squares residuals of this design: their component in the space of the regressors is ${(100 * drift).toPrecision(2)}% of their size (it would be 0).`,
-      'Give the residuals of a fit on exactly these columns (with the intercept unless --no-intercept), or give y and let exact-dw fit it.');
+      'Give the residuals of a fit on exactly these columns (the intercept included, unless the model has none), or give y and let exact-dw fit it.');
   }
   if (!(drift > 1e-12)) return { residuals: e, warnings: [] };
   const basis = problem.distribution.source.basis!;

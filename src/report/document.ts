@@ -6,7 +6,8 @@
  */
 import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
 import { VERSION } from '../version.js';
-import { boundsResolutionWords, nextStepsWords, timeIndexWords, warningText, rowList } from './wording.js';
+import { boundsResolutionWords, durbinHWords, engineChoiceWords, nextStepsWords, powerNoteText, timeIndexWords, warningText, rowList } from './wording.js';
+import type { PowerNote } from '../power/exact-power.js';
 import { dIsValid, savinWhiteCovers } from './citations.js';
 import { andList, arFormula, bound, cite, code, dFormula, estimate, fixed, level, math, plain, probability, probabilityRelation, prose, sym } from './format.js';
 
@@ -166,7 +167,7 @@ export interface PowerDescription {
   lower: number | null;
   upper: number | null;
   route: string | null;
-  notes: string[];
+  notes: PowerNote[];
   /** False when the rho reaching the target power was not searched for. */
   searched: boolean;
 }
@@ -182,7 +183,7 @@ export interface PowerDescription {
  */
 export function describePower(r: DwTestResult): PowerDescription {
   const pw = r.power!;
-  const extra = pw as Partial<{ alternative: DwTestResult['alternative']; process: 'ar1' | 'seasonal'; criticalUpper: number | null; route: string; notes: string[] }>;
+  const extra = pw as Partial<{ alternative: DwTestResult['alternative']; process: 'ar1' | 'seasonal'; criticalUpper: number | null; route: string; notes: PowerNote[] }>;
   const alternative = extra.alternative ?? r.alternative;
   const process = extra.process ?? 'ar1';
   const notes = Array.isArray(extra.notes) ? extra.notes : [];
@@ -193,7 +194,7 @@ export function describePower(r: DwTestResult): PowerDescription {
   else { lower = pw.critical; upper = extra.criticalUpper ?? null; }
   return {
     alternative, process, lower, upper, route: extra.route ?? null,
-    notes, searched: !notes.some((n) => n.startsWith('The rho at which power')),
+    notes, searched: !notes.some((n) => n.code === 'TARGET_NOT_SEARCHED'),
   };
 }
 
@@ -249,7 +250,7 @@ function powerSection(r: DwTestResult): ReportSection {
     para(reach),
     para(`Power of ${testWords}, with stationary errors ${processFormula(p.process, r.lag)}, computed exactly for this design matrix.`),
   ];
-  const notes = p.notes.filter((n) => !n.startsWith('The rho at which power') && !n.startsWith('Power ')).map(prose);
+  const notes = p.notes.filter((n) => n.code !== 'TARGET_NOT_SEARCHED' && n.code !== 'TARGET_NOT_REACHED').map(powerNoteText);
   if (notes.length) blocks.push({ kind: 'list', items: notes });
   return { id: 'power', heading: `Exact power against ${errors}`, blocks };
 }
@@ -352,8 +353,7 @@ function dynamicSection(r: DwTestResult): ReportSection {
     { kind: 'table', head: ['Test', 'Statistic', `${sym('p')} (asymptotic)`, 'Reference'], align: ['l', 'r', 'r', 'l'], rows },
   ];
   if (!hOk) {
-    const why = prose(dyn.durbinH.reason);
-    blocks.push(para(/^Durbin's h\b/.test(dyn.durbinH.reason) ? why : `Durbin's ${sym('h')} is undefined: ${why}`));
+    blocks.push(para(durbinHWords(dyn.durbinH)));
   }
   return { id: 'dynamic', heading: 'Tests for a model with a lagged dependent variable (asymptotic)', blocks };
 }
@@ -485,7 +485,7 @@ export function buildReport(r: DwTestResult): ReportDocument {
       sections.push({
         id: 'bounds', heading: 'The classical bounds test', blocks: [
           { kind: 'fields', rows },
-          para(prose(boundsResolutionWords(b.resolution))),
+          para(prose(boundsResolutionWords(b))),
           para(`The bounds ${sym('dL')} and ${sym('dU')} of the bounds test ${cite('durbin-watson-1951')} are computed exactly for this ${sym('n')} and ${sym('kp')}; ` +
             (savinWhiteCovers(r.n, b.kPrime, b.level)
               ? `the printed tables ${cite('savin-white-1977')} give the same values to three decimals. `
@@ -537,7 +537,7 @@ export function buildReport(r: DwTestResult): ReportDocument {
   const compRows: [string, string][] = [];
   if (valid) {
     compRows.push(['Method', engineWords(r.method)]);
-    if (r.methodReason) compRows.push(['Why this method', prose(r.methodReason)]);
+    if (r.methodChoice) compRows.push(['Why this method', prose(engineChoiceWords(r.methodChoice))]);
     compRows.push([`Numerical error bound (${sym('p')}-values)`, bound(r.errorBound)]);
   } else {
     compRows.push(['Method', `asymptotic normal, ${sym('chi2')} and ${sym('F')} reference distributions`]);
