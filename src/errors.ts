@@ -77,6 +77,33 @@ export interface DwErrorDetail {
   column?: string;
   /** The offending value as text. */
   value?: string;
+  /**
+   * Settings that would fix or get around the problem, named by the library's own option names
+   * (the hint says the same in words). The command line prints each as its flag, the page as its
+   * control; see {@link DwSuggestion}.
+   */
+  suggest?: DwSuggestion[];
+}
+
+/** The library options a hint may suggest, by their names in the library's option objects. */
+export type DwSuggestedOption = 'method' | 'decimal' | 'time' | 'intercept' | 'n';
+
+/**
+ * One setting a hint suggests, as plain data: the library option and, where the hint names one,
+ * its value (`'eigenfree'` for `method`, `'comma'` for `decimal`, `false` for `intercept`, a range
+ * such as `'10-200:10'` for the `n` of a bounds table; none for `time`, meaning "name the time
+ * column").
+ *
+ * @example
+ * ```ts
+ * const s: DwSuggestion = { option: 'method', value: 'eigenfree' };
+ * ```
+ */
+export interface DwSuggestion {
+  /** The option of the library's option objects. */
+  option: DwSuggestedOption;
+  /** The value to give it, when the hint names one. */
+  value?: string | boolean;
 }
 
 /**
@@ -102,6 +129,11 @@ export class DwError extends Error {
     this.code = code;
     this.hint = hint;
     this.detail = detail;
+  }
+
+  /** The settings the hint suggests (empty when none). */
+  get suggestions(): DwSuggestion[] {
+    return this.detail.suggest ?? [];
   }
 
   /** One line for a terminal: message, then the hint. */

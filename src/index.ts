@@ -23,7 +23,9 @@ export type { RegressorInput } from './model/design.js';
 export type { Coefficient } from './model/ols.js';
 export type { BreuschGodfrey, DurbinH, ResidualT } from './dynamic/serial-tests.js';
 export type { PanelNote, BatchNote } from './inference/warnings.js';
-export type { EngineName, MethodChoice, Tail, TailProbability } from './core/types.js';
+export type { EngineName, EngineChoice, MethodChoice, Tail, TailProbability } from './core/types.js';
+export type { BoundsOutcome } from './core/result-types.js';
+export type { DurbinHStatus, DynamicNote } from './dynamic/serial-tests.js';
 
 // the null distribution of d for a design
 export { designDistribution } from './inference/design-distribution.js';
@@ -36,7 +38,7 @@ export { boundsTable, type BoundsTable, type BoundsTableCell, type BoundsTableRe
 export { boundsZone, type BoundsZoneOptions } from './bounds/zone.js';
 
 // exact power against AR(1) errors
-export { exactPower, autoPowerRoute, type ExactPower, type ExactPowerInput, type PowerOptions, type PowerPoint, type PowerRoute } from './power/exact-power.js';
+export { exactPower, autoPowerRoute, type ExactPower, type ExactPowerInput, type PowerOptions, type PowerPoint, type PowerRoute, type PowerNote } from './power/exact-power.js';
 export type { ErrorProcess } from './power/weights.js';
 
 // many series at once, and panels
@@ -54,5 +56,5 @@ export {
 } from './data/time-index.js';
 
 // errors and version
-export { DwError, isDwError, type DwErrorCode, type DwErrorDetail } from './errors.js';
+export { DwError, isDwError, type DwErrorCode, type DwErrorDetail, type DwSuggestion, type DwSuggestedOption } from './errors.js';
 export { VERSION } from './version.js';

@@ -94,7 +94,7 @@ export function memoryEstimate(n: number, k: number, engine: Exclude<SizedEngine
  * @example
  * ```ts
  * checkSize(500, 3, 'imhof');     // fine
- * checkSize(50000, 3, 'imhof');   // throws SIZE_LIMIT: use --method eigenfree
+ * checkSize(50000, 3, 'imhof');   // throws SIZE_LIMIT: choose the eigen-free engine
  * checkSize(50000, 3, 'auto');    // fine: the eigen-free engine takes it
  * ```
  */
@@ -115,7 +115,8 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
     if (bytes > MEMORY_BUDGET_BYTES) {
       throw new DwError('SIZE_LIMIT',
         `The ${e} engine would need about ${(bytes / 2 ** 20).toFixed(0)} MiB for n = ${n}, k = ${k} (budget ${MEMORY_BUDGET_BYTES / 2 ** 20} MiB).`,
-        e === 'eigenfree' ? 'Use fewer regressors or fewer observations.' : 'Use --method eigenfree, which needs O(n k) memory.');
+        e === 'eigenfree' ? 'Use fewer regressors or fewer observations.' : "Choose the eigen-free engine (method 'eigenfree'), which needs O(n k) memory.",
+        e === 'eigenfree' ? {} : { suggest: [{ option: 'method', value: 'eigenfree' }] });
     }
   };
   switch (engine) {
@@ -124,7 +125,8 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
       if (n > spectrumLimit) {
         throw new DwError('SIZE_LIMIT',
           `The Imhof engine needs the spectrum, and ${routeName} is limited to n = ${spectrumLimit} (n = ${n} here).`,
-          n <= EIGENFREE_MAX_N ? 'Use --method eigenfree (or auto), which needs no spectrum.' : tooBigForAll().hint);
+          n <= EIGENFREE_MAX_N ? "Choose the eigen-free engine (method 'eigenfree', or 'auto'), which needs no spectrum." : tooBigForAll().hint,
+          n <= EIGENFREE_MAX_N ? { suggest: [{ option: 'method', value: 'eigenfree' }] } : {});
       }
       memory(engine);
       return;
@@ -132,7 +134,8 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
       if (n - k > PAN_MAX_M) {
         throw new DwError('SIZE_LIMIT',
           `Pan's formula is limited to m = n - k = ${PAN_MAX_M} (m = ${n - k} here): beyond it its alternating sum loses accuracy.`,
-          n <= spectrumLimit ? 'Use --method imhof (or auto).' : 'Use --method eigenfree (or auto).');
+          n <= spectrumLimit ? "Choose the Imhof engine (method 'imhof', or 'auto')." : "Choose the eigen-free engine (method 'eigenfree', or 'auto').",
+          { suggest: [{ option: 'method', value: n <= spectrumLimit ? 'imhof' : 'eigenfree' }] });
       }
       memory('pan');
       return;
@@ -140,7 +143,8 @@ export function checkSize(n: number, k: number, engine: SizedEngine, options: Si
       if (n > EIGENFREE_MAX_N) {
         if (n <= DCT_MAX_N) {
           throw new DwError('SIZE_LIMIT', `The eigen-free engine is limited to n = ${EIGENFREE_MAX_N} (n = ${n} here).`,
-            'Use --method dct (or auto), the DCT eigenbasis route, which takes difference operators up to n = 1000000.');
+            "Choose the DCT eigenbasis route (method 'dct', or 'auto'), which takes difference operators up to n = 1000000.",
+            { suggest: [{ option: 'method', value: 'dct' }] });
         }
         throw tooBigForAll();
       }

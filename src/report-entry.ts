@@ -23,7 +23,9 @@ export { renderJson } from './report/json.js';
 export { paperParagraph } from './report/paragraph.js';
 export { citations, type CitedWork } from './report/citations.js';
 export { renderDensitySvg, type DensityPlotOptions } from './report/svg.js';
-export { warningText, noteText, type Note } from './report/wording.js';
+export {
+  warningText, noteText, timeIndexWords, nextStepsWords, boundsResolutionWords, engineChoiceWords, durbinHWords, powerNoteText, type Note, type DurbinHFacts,
+} from './report/wording.js';
 export {
   renderBatch, renderBatchCsv, renderBatchMarkdown, renderBatchLatex, renderBatchJson, BATCH_FORMATS, type BatchFormat,
 } from './batch/render.js';

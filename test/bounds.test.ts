@@ -11,6 +11,7 @@ import { cosineSpectrumForm } from '../src/bounds/cosine-form.js';
 import { boundQuantile } from '../src/bounds/quantile.js';
 import { boundsTable, MAX_TABLE_CELLS } from '../src/bounds/table.js';
 import { boundsZone, formatPValue, zoneOf } from '../src/bounds/zone.js';
+import { boundsResolutionWords as words } from '../src/report/wording.js';
 import { parseIntegerList, parseLevelList } from '../src/bounds/ranges.js';
 import { spectralForm } from '../src/engines/imhof.js';
 import { exactDwCritical } from '../src/inference/dw-test.js';
@@ -320,22 +321,26 @@ describe('zones of d and their resolution (zones as in Durbin & Watson 1951)', (
   it('inconclusive: the resolution quotes the bounds and the exact p-value that decides', () => {
     const z = boundsZone(1.31, n, k, alpha, 'positive', 0.039);
     expect(z.zone).toBe('inconclusive-positive');
-    expect(z.resolution).toBe('The bounds test at 5% (one-sided, against positive autocorrelation) is inconclusive: d_L = 1.201 <= d = 1.310 <= d_U = 1.411; the exact p-value for this design, 0.039, rejects at 5%.');
-    expect(boundsZone(1.31, n, k, alpha, 'positive', 0.081).resolution).toMatch(/the exact p-value for this design, 0\.081, does not reject at 5%\.$/);
-    expect(boundsZone(1.31, n, k, alpha, 'positive', null).resolution).toMatch(/only the exact distribution of d for this design decides/);
-    expect(boundsZone(2.7, n, k, alpha, 'negative', 0.02).resolution).toMatch(/4 - d_U = 2\.589 <= d = 2\.700 <= 4 - d_L = 2\.799; the exact p-value for this design, 0\.02, rejects at 5%/);
+    expect(z.outcome).toEqual({ code: 'BOUNDS_INCONCLUSIVE', d: 1.31, alpha, alternative: 'positive', intercept: true, exactP: 0.039, exactPErrorBound: 0 });
+    expect(words(z)).toBe('The bounds test at 5% (one-sided, against positive autocorrelation) is inconclusive: d_L = 1.201 <= d = 1.310 <= d_U = 1.411; the exact p-value for this design, 0.039, rejects at 5%.');
+    expect(words(boundsZone(1.31, n, k, alpha, 'positive', 0.081))).toMatch(/the exact p-value for this design, 0\.081, does not reject at 5%\.$/);
+    expect(words(boundsZone(1.31, n, k, alpha, 'positive', null))).toMatch(/only the exact distribution of d for this design decides/);
+    expect(words(boundsZone(2.7, n, k, alpha, 'negative', 0.02))).toMatch(/4 - d_U = 2\.589 <= d = 2\.700 <= 4 - d_L = 2\.799; the exact p-value for this design, 0\.02, rejects at 5%/);
   });
 
   it('decided by the bounds: the exact p-value is quoted beside them, and a disagreement is flagged', () => {
     const z = boundsZone(0.9, n, k, alpha, 'positive', 0.001);
-    expect(z.resolution).toMatch(/^d = 0\.900 < d_L = 1\.201: the bounds test rejects no autocorrelation in favour of positive autocorrelation at 5%/);
-    expect(z.resolution).toMatch(/the exact p-value for this design, 0\.001, agrees\.$/);
+    expect(words(z)).toMatch(/^d = 0\.900 < d_L = 1\.201: the bounds test rejects no autocorrelation in favour of positive autocorrelation at 5%/);
+    expect(words(z)).toMatch(/the exact p-value for this design, 0\.001, agrees\.$/);
+    expect(z.outcome.code).toBe('BOUNDS_REJECT');
     const far = boundsZone(3.5, n, k, alpha, 'positive', 0.999);
     expect(far.zone).toBe('reject-negative');
-    expect(far.resolution).toMatch(/no evidence of positive autocorrelation.*where a test against negative autocorrelation would reject/);
+    expect(far.outcome.code).toBe('BOUNDS_DO_NOT_REJECT');
+    expect(words(far)).not.toMatch(/finds no evidence/);
+    expect(words(far)).toMatch(/does not reject no autocorrelation against positive autocorrelation.*where a test against negative autocorrelation would reject/);
     // the zone is computed only for lag 1, an intercept and no gaps, where the bounds are exact: a
     // disagreement can only be a numerical fault, and the text says so (not a lag/gaps matter)
-    const clash = boundsZone(0.9, n, k, alpha, 'positive', 0.2).resolution;
+    const clash = words(boundsZone(0.9, n, k, alpha, 'positive', 0.2));
     expect(clash).toMatch(/but the exact p-value for this design, 0\.2, does not reject at 5%\. .*internal numerical inconsistency: please report it/);
     expect(clash).not.toMatch(/hold only for lag 1/);
   });
@@ -346,8 +351,8 @@ describe('zones of d and their resolution (zones as in Durbin & Watson 1951)', (
     expect(z.level).toBe(0.025);
     expect(z.dL).toBeCloseTo(half.dL, 12);
     expect(z.dU).toBeCloseTo(half.dU, 12);
-    expect(z.resolution).toMatch(/at 5% \(two-sided, bounds at 2\.5% in each tail\)/);
-    expect(z.resolution).toMatch(/exact two-sided p-value for this design, 0\.01/);
+    expect(words(z)).toMatch(/at 5% \(two-sided, bounds at 2\.5% in each tail\)/);
+    expect(words(z)).toMatch(/exact two-sided p-value for this design, 0\.01/);
     expect(boundsZone(2.0, n, k, alpha, 'two-sided', 0.9).zone).toBe('no-evidence');
   });
 
@@ -370,6 +375,9 @@ describe('zones of d and their resolution (zones as in Durbin & Watson 1951)', (
     const j = JSON.parse(r.out);
     expect(j.zone.zone).toBe('inconclusive-positive');
     expect(j.zone.resolution).toMatch(/is inconclusive/);
+    expect(j.zone.outcome.code).toBe('BOUNDS_INCONCLUSIVE');
+    const above = JSON.parse((await run(boundsCommand, '--n', '20', '--k', '1', '--d', '2', '--format', 'json')).out);
+    expect(above.zone.resolution).toMatch(/the bounds test does not reject no autocorrelation against positive autocorrelation at 5%/);
   });
 });
 

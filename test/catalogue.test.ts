@@ -113,6 +113,7 @@ const C: Entry[] = [
   { input: 'quoted decimal commas in a comma-delimited file, without --decimal comma', code: 'CELL_NOT_NUMERIC', words: ['is not a number', '--decimal comma'],
     argv: () => ['test', file('y,x\n' + lines((i) => `"${Y[i].toFixed(3).replace('.', ',')}",${i}`)), '--y', 'y'] },
   { input: "';' file mixing decimal commas and decimal points", code: 'CSV_AMBIGUOUS_DECIMAL', words: ['mixes decimal commas', '--decimal comma', '--decimal point'],
+    libWords: ['mixes decimal commas', "decimal 'comma' or 'point'"],
     argv: () => ['test', file('y;x\n' + lines((i) => `${Y[i].toFixed(2).replace('.', ',')};${X[i].toFixed(2)}`)), '--y', 'y'],
     lib: () => parseCsv('y;x\n1,5;2.5\n2,5;3.5\n') },
   { input: 'thousands separators ("1,234.5")', code: 'CELL_NOT_NUMERIC', words: ["'1,234.5'", 'remove the commas'],
@@ -230,13 +231,13 @@ const C: Entry[] = [
   { input: 'a regressor value that is null or text (library input)', code: 'CELL_NOT_NUMERIC', words: ["'x' has the value null", 'observation 3'],
     lib: () => buildDesign({ x: X.map((v, i) => (i === 2 ? null : v)) as unknown as number[] }, N), note: 'library only: null is never read as 0' },
   // ---- limits
-  { input: 'n beyond the spectral engines (Imhof asked for n = 50000)', code: 'SIZE_LIMIT', words: ['limited to n = 2000', '--method eigenfree'],
+  { input: 'n beyond the spectral engines (Imhof asked for n = 50000)', code: 'SIZE_LIMIT', words: ['limited to n = 2000', "method 'eigenfree'"],
     lib: () => checkSize(50000, 3, 'imhof'), note: 'library only: checkSize, see src/limits.ts' },
   { input: 'n beyond every engine (n = 2000000)', code: 'SIZE_LIMIT', words: ['beyond every engine', 'n = 1000000'],
     lib: () => checkSize(2000000, 3, 'auto'), note: 'library only: checkSize' },
   { input: 'a level that no double-precision d reaches (m = 2, level 1e-12 next to the end of the support)', code: 'QUANTILE_UNREACHABLE', words: ['No double-precision value of d', 'Use a larger level'],
     lib: () => DwNullDistribution.fromSpectrum(Float64Array.of(1, 3)).quantile(1e-12), note: 'library only: DwNullDistribution.quantile' },
-  { input: "m beyond Pan's formula (m = 500)", code: 'SIZE_LIMIT', words: ['m = n - k = 400', '--method imhof'], lib: () => checkSize(503, 3, 'pan'), note: 'library only: checkSize' },
+  { input: "m beyond Pan's formula (m = 500)", code: 'SIZE_LIMIT', words: ['m = n - k = 400', "method 'imhof'"], lib: () => checkSize(503, 3, 'pan'), note: 'library only: checkSize' },
 ];
 
 /** Inputs that look odd but are unambiguous: each must give the answer of the plain file. */

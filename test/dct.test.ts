@@ -91,7 +91,7 @@ describe('DCT route against Imhof on the structured spectrum and the eigen-free 
     const dist = prepareProblem(design(n, 5), n).distribution;
     const r = dist.lowerTail(1.95);
     expect(r.method).toBe('dct');
-    expect(r.reason).toMatch(/DCT eigenbasis/);
+    expect(r.reason).toEqual({ code: 'LARGE_N_DCT', n });
     // here every evaluation takes the moment series (u (h + |c0 - c|) <= 1/2 up to the cut):
     // against Imhof's integral on the structured spectrum, both tails, within the two bounds
     const src = dist.source;

@@ -15,6 +15,8 @@ import { detectLaggedDependent } from '../src/dynamic/lagged-dependent.js';
 import { breuschGodfrey, durbinH, dynamicModelCheck, residualT, serialCorrelationTests } from '../src/dynamic/serial-tests.js';
 import { buildDesign, factorDesign } from '../src/model/design.js';
 import { fitLeastSquares } from '../src/model/ols.js';
+import { durbinHWords, warningText } from '../src/report/wording.js';
+import { inline } from '../src/report/format.js';
 import { diagnoseCommand } from '../src/cli/commands/diagnose.js';
 import { parseOptions } from '../src/cli/args.js';
 import { isDwError, type DwError } from '../src/errors.js';
@@ -220,7 +222,8 @@ describe("Durbin's h (Durbin 1970) against a direct computation with ml-matrix",
     expect(h.nV).toBeGreaterThanOrEqual(1);
     expect(h.h).toBeNull();
     expect(h.pValue).toBeNull();
-    expect(h.reason).toMatch(/undefined.*n V = .* >= 1/);
+    expect(h.status).toBe('DURBIN_H_UNDEFINED');
+    expect(inline(durbinHWords(h), 'text')).toMatch(/^Durbin's h is undefined here: n V = .* >= 1 .*Durbin's alternative test/);
   });
 });
 
@@ -303,7 +306,8 @@ describe('dynamicModelCheck: d is not valid, and what replaces it', () => {
     expect(r).not.toBeNull();
     expect(r!.laggedDependent).toBe('ylag');
     expect(r!.how).toBe('detected');
-    expect(r!.message).toMatch(/not a valid test/);
+    expect(r!.notes[0]).toEqual({ code: 'D_NOT_VALID_LAGGED_DEPENDENT', column: 'ylag', how: 'detected', hDefined: r!.durbinH.h !== null, bgOrder: 2 });
+    expect(inline(warningText(r!.notes[0]), 'text')).toMatch(/not a valid test/);
     expect(r!.asymptotic).toBe(true);
     const s = serialCorrelationTests({ y, x: { x, ylag }, laggedDependent: 'ylag', order: 2 });
     expect(r!.breuschGodfrey).toEqual(s.breuschGodfrey);
@@ -314,7 +318,8 @@ describe('dynamicModelCheck: d is not valid, and what replaces it', () => {
   it('declared: how is "declared"; a declared column that is not y lagged gets a note', () => {
     expect(dynamicModelCheck({ y, x: { x, ylag }, laggedDependent: 'ylag' })!.how).toBe('declared');
     const odd = dynamicModelCheck({ y, x: { x, ylag }, laggedDependent: 'x' });
-    expect(odd!.notes.join(' ')).toMatch(/not equal to y lagged/);
+    expect(odd!.notes).toContainEqual({ code: 'LAGGED_DEPENDENT_MISMATCH', column: odd!.laggedDependent });
+    expect(odd!.notes.map((n) => inline(warningText(n), 'text')).join(' ')).toMatch(/not equal to y lagged/);
   });
   it('null without a lagged dependent variable, or with detection turned off', () => {
     expect(dynamicModelCheck({ y, x: { x } })).toBeNull();

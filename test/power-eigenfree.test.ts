@@ -6,6 +6,11 @@
  * null distribution (power at rho = 0 is alpha), and a seeded simulation of stationary AR(1) errors.
  */
 import { describe, expect, it } from 'vitest';
+import { powerNoteText } from '../src/report/wording.js';
+import { inline } from '../src/report/format.js';
+import type { PowerNote } from '../src/power/exact-power.js';
+
+const notesText = (notes: PowerNote[]) => notes.map((n) => inline(powerNoteText(n), 'text')).join(' ');
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { CholeskyDecomposition } from 'ml-matrix';
@@ -179,8 +184,9 @@ describe('power through the two routes at n = 300 (the dense route as the refere
         expect(d.rhoAtTarget).not.toBeNull();
         expect(Math.abs((d.rhoAtTarget as number) - (e.rhoAtTarget as number))).toBeLessThan(1e-6);
       }
-      expect(d.notes.join(' ')).toMatch(/Route: dense/);
-      expect(e.notes.join(' ')).toMatch(/Route: eigen-free/);
+      expect(d.notes).toContainEqual({ code: 'POWER_ROUTE', route: 'dense', n: d.n, bySize: false });
+      expect(notesText(d.notes)).toMatch(/Route: dense/);
+      expect(notesText(e.notes)).toMatch(/Route: eigen-free/);
     }
   });
   it('auto picks the dense route for small n and the eigen-free one above it (n = 300, k = 3 is eigen-free)', () => {
@@ -292,8 +298,9 @@ describe('large n', () => {
     }
     expect(s.curve[1].power).toBeGreaterThan(s.curve[0].power);
     expect(s.curve[2].power).toBe(1); // settled by Chernoff's bound
-    expect(s.notes.join(' ')).toMatch(/Chernoff/);
-    expect(s.notes.join(' ')).toMatch(/not searched/);
+    expect(s.notes.map((n) => n.code)).toContain('CHERNOFF_SETTLED');
+    expect(notesText(s.notes)).toMatch(/Chernoff/);
+    expect(notesText(s.notes)).toMatch(/not searched/);
   });
 });
 

@@ -5,6 +5,11 @@
  * reference JSON (test/ref/), and seeded simulation of AR(1) errors with a stationary start.
  */
 import { describe, expect, it } from 'vitest';
+import { powerNoteText } from '../src/report/wording.js';
+import { inline } from '../src/report/format.js';
+import type { PowerNote } from '../src/power/exact-power.js';
+
+const notesText = (notes: PowerNote[]) => notes.map((n) => inline(powerNoteText(n), 'text')).join(' ');
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { bandToDense, durbinWatson } from '../src/core/difference.js';
@@ -221,7 +226,8 @@ describe('shape of the power curve', () => {
     // n = 6 with two regressors: power 0.999 is not reached by rho = 0.99
     const tiny = exactPower({ x: { t: trend(6), s: [1, -1, 2, 0, 3, 1] }, rho: [], target: 0.999 });
     expect(tiny.rhoAtTarget).toBeNull();
-    expect(tiny.notes.join(' ')).toMatch(/not reached/);
+    expect(tiny.notes.map((n) => n.code)).toContain('TARGET_NOT_REACHED');
+    expect(notesText(tiny.notes)).toMatch(/not reached/);
   });
   it('power can fall as rho -> 1 without an intercept, and the result says so (limit of d is (M1)\'A(M1) / (M1)\'(M1); Tillman 1975, Kramer 1985, from memory)', () => {
     // x alternates 1.9, 0.1: the residual of the constant on x oscillates, so as rho -> 1 (errors
@@ -236,7 +242,8 @@ describe('shape of the power curve', () => {
     const dLimit = num / r.reduce((u, v) => u + v * v, 0);
     expect(dLimit).toBeGreaterThan(s.critical);
     expect(s.curve[3].power).toBeLessThan(s.curve[2].power);
-    expect(s.notes.join(' ')).toMatch(/power falls as \|rho\| grows from 0.9 to 0.99/);
+    expect(s.notes).toContainEqual({ code: 'POWER_FALLS', from: 0.9, to: 0.99 });
+    expect(notesText(s.notes)).toMatch(/power falls as \|rho\| grows from 0.9 to 0.99/);
   });
   it('with consecutive times, giving the time column changes nothing (bit-identical)', () => {
     const x = randomColumns(8, 24, 2);

@@ -102,7 +102,7 @@ function betaResult(alternative: DwTestResult['alternative']): DwTestResult {
     critical: { lower: 1 + 2 * jStat.beta.inv(tail, A, B), upper: 1 + 2 * jStat.beta.inv(1 - tail, A, B), tailLevel: tail },
     nullMean: betaDist.mean,
     nullVariance: betaDist.variance,
-    bounds: { kPrime: 1, level: tail, dL: 1.31, dU: 1.62, zone: 'inconclusive-positive', resolution: 'hand-made' },
+    bounds: { kPrime: 1, level: tail, dL: 1.31, dU: 1.62, zone: 'inconclusive-positive', outcome: { code: 'BOUNDS_INCONCLUSIVE' as const, d: 1.5, alpha: 0.05, alternative: 'positive' as const, intercept: true, exactP: null, exactPErrorBound: 0 } },
     power: null,
     dynamic: null,
   };
@@ -242,7 +242,7 @@ describe('density figure for a real (invented) design, m = 27', () => {
 
 describe('the negative alternative marks 4 - d_U and 4 - d_L', () => {
   it('at the positions the axis gives', () => {
-    const r = { ...betaResult('negative'), d: 2.6, bounds: { kPrime: 1, level: 0.05, dL: 1.31, dU: 1.62, zone: 'no-evidence' as const, resolution: '' } };
+    const r = { ...betaResult('negative'), d: 2.6, bounds: { kPrime: 1, level: 0.05, dL: 1.31, dU: 1.62, zone: 'no-evidence' as const, outcome: { code: 'BOUNDS_DO_NOT_REJECT' as const, d: 2.6, alpha: 0.05, alternative: 'negative' as const, intercept: true, exactP: null, exactPErrorBound: 0 } } };
     const doc = parseSvg(renderDensitySvg(r, betaDist));
     const sx = scaleFromTicks(doc, 'x');
     expect(Math.abs(markX(doc, 'mark-4-dU') - sx.toPx(4 - 1.62))).toBeLessThan(0.01);

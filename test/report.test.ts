@@ -11,6 +11,8 @@ import { renderJson } from '../src/report/json.js';
 import { paperParagraph } from '../src/report/paragraph.js';
 import { citations, citedKeys } from '../src/report/citations.js';
 import { VERSION } from '../src/version.js';
+import { boundsResolutionWords } from '../src/report/wording.js';
+import { inline } from '../src/report/format.js';
 import { FIXTURES, dynamicNoH, dynamicResult, negativeWithGaps, noInterceptLag4, staticResult } from './report-fixtures.js';
 
 /** The text with every run of white space (line breaks of the wrapped text report) made one space. */
@@ -187,7 +189,11 @@ describe('JSON', () => {
     expect(j.d).toBe(r.d);
     expect(j.pValue).toBe(r.pValue);
     expect(j.critical).toEqual(r.critical);
-    expect(j.bounds).toEqual(r.bounds);
+    // the typed codes stay, and the JSON keeps its sentences beside them (words from wording.ts)
+    expect(j.bounds).toEqual({ ...r.bounds, resolution: inline(boundsResolutionWords(r.bounds!), 'text') });
+    expect(j.bounds.outcome.code).toBe('BOUNDS_INCONCLUSIVE');
+    expect(j.methodChoice).toEqual({ code: 'IMHOF_SPECTRUM' });
+    expect(j.methodReason).toBe('Imhof integral on the spectrum');
     expect(j.power).toEqual(r.power);
     expect(j.coefficients).toEqual(r.coefficients);
   });

@@ -23,7 +23,7 @@ import { exactDwTest, type DwTestInput, type DwTestResult } from '../src/inferen
 import { DwError } from '../src/errors.js';
 import { formatBound, formatProbability, formatStatistic } from '../src/web/format.js';
 import { guessColumns, summarizeColumns } from '../src/web/columns.js';
-import { forThePage, plainError } from '../src/web/plain-error.js';
+import { pageHint, plainError } from '../src/web/plain-error.js';
 import { chromiumPath } from './helpers/browser.js';
 
 const FLAGS = [
@@ -423,12 +423,19 @@ describe('the page helpers (plain functions, no browser)', () => {
     expect(guessColumns(table, cols)).toEqual({ time: null, y: 'sales', x: ['t', 'price'] });
   });
 
-  it('names command-line options in library hints as the page controls, and hides internals of other errors', () => {
-    expect(forThePage('This looks like a decimal comma: add --decimal comma.'))
-      .toBe('This looks like a decimal comma: add "Decimal mark: comma" under "How to read the file".');
-    expect(forThePage('fill the value or remove the row (and declare the gap with --time).'))
-      .toBe('fill the value or remove the row (and declare the gap with the "Time column" choice).');
-    expect(forThePage('Use --method imhof or pan for a given spectrum.')).toBe('Use the engine "imhof" under "Numerical engine" or pan for a given spectrum.');
+  it('names the settings a library error suggests as the page controls, and hides internals of other errors', () => {
+    expect(pageHint("This looks like a decimal comma: read the file with decimal 'comma'.", [{ option: 'decimal', value: 'comma' }]))
+      .toBe('This looks like a decimal comma: read the file with decimal \'comma\'. On this page: "Decimal mark: comma" under "How to read the file".');
+    expect(pageHint('Name the time column.', [{ option: 'time' }])).toBe('Name the time column. On this page: the "Time column" choice.');
+    expect(pageHint('x', [{ option: 'method', value: 'imhof' }, { option: 'method', value: 'pan' }]))
+      .toBe('x On this page: the engine "imhof" under "Numerical engine" or the engine "pan" under "Numerical engine".');
+    // a real library error carries its suggestion through to the page
+    let thrown: unknown;
+    try { numericColumn(parseCsv('y,x\n"1,5",2\n"2,5",3\n'), 'y'); } catch (err) { thrown = err; }
+    const viaPage = plainError(thrown);
+    expect(viaPage.code).toBe('CELL_NOT_NUMERIC');
+    expect(viaPage.hint).toContain('On this page: "Decimal mark: comma"');
+    expect(viaPage.hint).not.toMatch(/--[a-z]/);
     const e = plainError(new DwError('CSV_EMPTY', 'The pasted text is empty.', 'Paste a header row and data.'));
     expect(e).toEqual({ code: 'CSV_EMPTY', message: 'The pasted text is empty.', hint: 'Paste a header row and data.' });
     const internal = plainError(new TypeError('x is undefined\n    at f (worker.js:1:2)'));

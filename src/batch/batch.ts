@@ -5,7 +5,7 @@
  * over the family (src/batch/adjust.ts). A group that cannot be tested gets its error code and
  * message and the batch goes on; file-level problems (a column that does not exist) throw.
  */
-import { DwError, isDwError, type DwErrorCode } from '../errors.js';
+import { DwError, isDwError, type DwErrorCode, type DwSuggestion } from '../errors.js';
 import { columnIndex, isTextColumn, parseCell, type DataTable } from '../data/csv.js';
 import type { MethodChoice } from '../core/types.js';
 import type { Alternative } from '../core/alternative.js';
@@ -68,6 +68,8 @@ export interface BatchGroupError {
   code: DwErrorCode;
   message: string;
   hint: string;
+  /** The settings the hint suggests, by library option name (see `DwErrorDetail.suggest`). */
+  suggest?: DwSuggestion[];
 }
 
 /** The test of one group. */
@@ -242,7 +244,7 @@ export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y
 }
 
 function groupError(err: unknown): BatchGroupError {
-  if (isDwError(err)) return { code: err.code, message: err.message, hint: err.hint };
+  if (isDwError(err)) return { code: err.code, message: err.message, hint: err.hint, ...(err.detail?.suggest ? { suggest: err.detail.suggest } : {}) };
   throw err;
 }
 

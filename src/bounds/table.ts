@@ -138,7 +138,7 @@ export function checkTableRequest(req: BoundsTableRequest): { n: number[]; kPrim
   if (cells > MAX_TABLE_CELLS) {
     throw new DwError('SIZE_LIMIT',
       `The table would have ${cells.toLocaleString('en-US')} cells (${n.length} values of n x ${kPrime.length} of k' x ${alpha.length} of alpha); the limit is ${MAX_TABLE_CELLS.toLocaleString('en-US')}.`,
-      'Ask for fewer values, e.g. n in steps (--n 10-200:10), or split the table into several runs.');
+      'Ask for fewer values, e.g. n from 10 to 200 in steps of 10, or split the table into several runs.', { suggest: [{ option: 'n', value: '10-200:10' }] });
   }
   const minN = (k: number) => k + (intercept ? 3 : 2);
   let work = 0;
@@ -146,7 +146,7 @@ export function checkTableRequest(req: BoundsTableRequest): { n: number[]; kPrim
   if (work > MAX_TABLE_WORK) {
     throw new DwError('SIZE_LIMIT',
       `The table would take roughly ${Math.round(work * 1e-5)} s of computing (${cells.toLocaleString('en-US')} cells, n up to ${n[n.length - 1]}, k' up to ${kPrime[kPrime.length - 1]}); the limit is about ${Math.round(MAX_TABLE_WORK * 1e-5)} s.`,
-      'Ask for fewer values, e.g. n in steps (--n 100-2000:100), or split the table into several runs.');
+      'Ask for fewer values, e.g. n from 100 to 2000 in steps of 100, or split the table into several runs.', { suggest: [{ option: 'n', value: '100-2000:100' }] });
   }
   if (!n.some((v) => kPrime.some((k) => v >= minN(k)))) {
     throw new DwError('N_INVALID',

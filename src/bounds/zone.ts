@@ -1,6 +1,7 @@
 /**
  * Where the classical bounds test (Durbin & Watson 1950, 1951) would have landed for an observed d,
- * and how the exact p-value for the caller's own design resolves it. Zones on [0, 4]:
+ * and the exact p-value for the caller's own design beside it, as plain data (the sentence that
+ * resolves it is written by src/report/wording.ts). Zones on [0, 4]:
  *
  *   reject-positive  d < d_L  |  inconclusive-positive  d_L <= d <= d_U  |  no-evidence  d_U < d < 4 - d_U
  *   |  inconclusive-negative  4 - d_U <= d <= 4 - d_L  |  reject-negative  d > 4 - d_L
@@ -12,7 +13,7 @@
  */
 import { DwError } from '../errors.js';
 import type { MethodChoice } from '../core/types.js';
-import type { BoundsZone } from '../core/result-types.js';
+import type { BoundsOutcome, BoundsZone } from '../core/result-types.js';
 import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
 import { SENTENCE_STYLE, formatProbability } from '../core/format-number.js';
 import { bounds } from './bounds.js';
@@ -30,16 +31,16 @@ export interface BoundsZoneOptions {
 }
 
 /**
- * The bounds-test zone of d for n observations and k' regressors other than the intercept, with a
- * plain-words resolution. `exactP` is the exact p-value of d for the caller's design under the same
+ * The bounds-test zone of d for n observations and k' regressors other than the intercept, with
+ * its outcome as a typed code (`outcome.code`; words by `boundsResolutionWords` of the reports). `exactP` is the exact p-value of d for the caller's design under the same
  * alternative (P(D <= d) for `positive`, P(D >= d) for `negative`, the two-sided p-value for
  * `two-sided`); pass null when it is not known.
  *
  * @example
  * ```ts
- * boundsZone(1.31, 20, 1, 0.05, 'positive', 0.039).resolution;
- * // "The bounds test at 5% (one-sided, against positive autocorrelation) is inconclusive:
- * //  d_L = 1.201 <= d = 1.310 <= d_U = 1.411; the exact p-value for this design, 0.039, rejects at 5%."
+ * const z = boundsZone(1.31, 20, 1, 0.05, 'positive', 0.039);
+ * z.zone;         // 'inconclusive-positive' (d_L = 1.201 <= d <= d_U = 1.411)
+ * z.outcome.code; // 'BOUNDS_INCONCLUSIVE': the exact p-value, 0.039, decides
  * ```
  */
 export function boundsZone(
@@ -63,7 +64,7 @@ export function boundsZone(
   const intercept = options.intercept ?? true;
   const { dL, dU } = options.known ?? bounds(n, kPrime, level, { intercept, method: options.method });
   const zone = zoneOf(d, dL, dU);
-  return { kPrime, level, dL, dU, zone, resolution: resolve(d, dL, dU, zone, alpha, alternative, exactP, intercept, options.exactPErrorBound ?? 0) };
+  return { kPrime, level, dL, dU, zone, outcome: outcomeOf(d, zone, alpha, alternative, exactP, intercept, options.exactPErrorBound ?? 0) };
 }
 
 /**
@@ -86,51 +87,11 @@ export function zoneOf(d: number, dL: number, dU: number): BoundsZone['zone'] {
   return 'no-evidence';
 }
 
-function resolve(d: number, dL: number, dU: number, zone: BoundsZone['zone'], alpha: number, alt: Alternative, p: number | null, intercept: boolean, errorBound: number): string {
-  const [fd, fL, fU, fL4, fU4] = distinct([d, dL, dU, 4 - dL, 4 - dU]);
-  const at = alt === 'two-sided'
-    ? `at ${pct(alpha)} (two-sided, bounds at ${pct(alpha / 2)} in each tail)`
-    : `at ${pct(alpha)} (one-sided, against ${alt} autocorrelation)`;
-  const model = intercept ? '' : ' for a model without intercept';
-  const exactP = p === null ? '' : `the exact ${alt === 'two-sided' ? 'two-sided ' : ''}p-value for this design, ${formatPValue(p, alpha, errorBound)}`;
-  const inconclusiveHere = (zone === 'inconclusive-positive' && alt !== 'negative') || (zone === 'inconclusive-negative' && alt !== 'positive');
-  if (inconclusiveHere) {
-    const range = zone === 'inconclusive-positive'
-      ? `d_L = ${fL} <= d = ${fd} <= d_U = ${fU}`
-      : `4 - d_U = ${fU4} <= d = ${fd} <= 4 - d_L = ${fL4}`;
-    const head = `The bounds test${model} ${at} is inconclusive: ${range}`;
-    return p === null
-      ? `${head}; only the exact distribution of d for this design decides: compute the exact p-value for your regressors.`
-      : `${head}; ${exactP}, ${p <= alpha ? 'rejects' : 'does not reject'} at ${pct(alpha)}.`;
-  }
-  // the bounds decide: say how, then give the exact p-value beside it
-  let verdict: string;
-  let rejects: boolean;
-  if ((zone === 'reject-positive' && alt !== 'negative') || (zone === 'reject-negative' && alt !== 'positive')) {
-    rejects = true;
-    const side = zone === 'reject-positive' ? `d = ${fd} < d_L = ${fL}` : `d = ${fd} > 4 - d_L = ${fL4}`;
-    const dir = zone === 'reject-positive' ? 'positive' : 'negative';
-    verdict = `${side}: the bounds test${model} rejects no autocorrelation in favour of ${dir} autocorrelation ${at}, whatever the regressors`;
-  } else {
-    rejects = false;
-    if (alt === 'positive') {
-      verdict = `d = ${fd} > d_U = ${fU}: the bounds test${model} finds no evidence of positive autocorrelation ${at}, whatever the regressors`;
-      if (zone === 'inconclusive-negative') verdict += ` (d lies in the zone 4 - d_U = ${fU4} <= d <= 4 - d_L = ${fL4}, where a test against negative autocorrelation would be inconclusive)`;
-      if (zone === 'reject-negative') verdict += ` (d lies beyond 4 - d_L = ${fL4}, where a test against negative autocorrelation would reject)`;
-    } else if (alt === 'negative') {
-      verdict = `d = ${fd} < 4 - d_U = ${fU4}: the bounds test${model} finds no evidence of negative autocorrelation ${at}, whatever the regressors`;
-      if (zone === 'inconclusive-positive') verdict += ` (d lies in the zone d_L = ${fL} <= d <= d_U = ${fU}, where a test against positive autocorrelation would be inconclusive)`;
-      if (zone === 'reject-positive') verdict += ` (d lies below d_L = ${fL}, where a test against positive autocorrelation would reject)`;
-    } else {
-      verdict = `d_U = ${fU} < d = ${fd} < 4 - d_U = ${fU4}: the bounds test${model} finds no evidence of autocorrelation in either direction ${at}, whatever the regressors`;
-    }
-  }
-  if (p === null) return `${verdict}.`;
-  return (p <= alpha) === rejects
-    ? `${verdict}; ${exactP}, agrees.`
-    : `${verdict}; but ${exactP}, ${p <= alpha ? 'rejects' : 'does not reject'} at ${pct(alpha)}. ` +
-      'This cannot happen in exact arithmetic (the bounds are exact for lag 1 with an intercept and no gaps, the only case where they are computed), ' +
-      'so it is an internal numerical inconsistency: please report it with the data, and do not rely on either decision until it is resolved.';
+function outcomeOf(d: number, zone: BoundsZone['zone'], alpha: number, alternative: Alternative, exactP: number | null, intercept: boolean, exactPErrorBound: number): BoundsOutcome {
+  const inconclusive = (zone === 'inconclusive-positive' && alternative !== 'negative') || (zone === 'inconclusive-negative' && alternative !== 'positive');
+  const rejects = (zone === 'reject-positive' && alternative !== 'negative') || (zone === 'reject-negative' && alternative !== 'positive');
+  const code = inconclusive ? 'BOUNDS_INCONCLUSIVE' : rejects ? 'BOUNDS_REJECT' : 'BOUNDS_DO_NOT_REJECT';
+  return { code, d, alpha, alternative, intercept, exactP, exactPErrorBound };
 }
 
 /**
@@ -163,17 +124,4 @@ export function pct(a: number): string {
 export function formatPValue(p: number, alpha: number, errorBound = 0): string {
   const f = formatProbability(p, SENTENCE_STYLE, { alpha, errorBound });
   return f.atLimit ? `${f.text} (within the numerical error bound of ${pct(alpha)}: the decision is at the numerical limit)` : f.text;
-}
-
-/** Numbers with 3 decimals, or more (up to 6) when two of them would otherwise print the same. */
-function distinct(xs: number[]): string[] {
-  for (let dec = 3; dec <= 6; dec++) {
-    const s = xs.map((x) => x.toFixed(dec));
-    let clash = false;
-    for (let i = 0; i < xs.length && !clash; i++) {
-      for (let j = i + 1; j < xs.length; j++) if (xs[i] !== xs[j] && s[i] === s[j]) { clash = true; break; }
-    }
-    if (!clash) return s;
-  }
-  return xs.map((x) => x.toFixed(6));
 }

@@ -14,7 +14,7 @@ import {
   type BatchColumns, type BatchGroup, type BatchGrouping, type BatchInput, type BatchResult,
 } from '../batch/batch.js';
 import { DesignCache } from '../batch/shared-design.js';
-import { DwError } from '../errors.js';
+import { DwError, type DwErrorDetail } from '../errors.js';
 
 /**
  * What a worker thread is given: the table with only its own rows filled in (the others empty, so
@@ -32,7 +32,7 @@ export interface BatchJob {
 export type BatchWorkerMessage =
   | { kind: 'progress'; done: number }
   | { kind: 'done'; groups: BatchGroup[]; designs: number }
-  | { kind: 'error'; code: string; message: string; hint: string };
+  | { kind: 'error'; code: string; message: string; hint: string; detail?: DwErrorDetail };
 
 /**
  * Run one job in this thread (what each worker thread does).
@@ -140,7 +140,7 @@ export async function runBatch(
           resolveJob({ groups: m.groups, designs: m.designs });
         } else {
           settled = true;
-          reject(new DwError(m.code as DwError['code'], m.message, m.hint));
+          reject(new DwError(m.code as DwError['code'], m.message, m.hint, m.detail ?? {}));
         }
       });
       worker.on('error', (err) => { if (!settled) { settled = true; reject(err); } });

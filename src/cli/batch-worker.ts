@@ -15,6 +15,6 @@ parentPort!.once('message', (job: BatchJob) => {
     post({ kind: 'done', groups, designs });
   } catch (err) {
     if (!isDwError(err)) throw err;
-    post({ kind: 'error', code: err.code, message: err.message, hint: err.hint });
+    post({ kind: 'error', code: err.code, message: err.message, hint: err.hint, detail: err.detail });
   }
 });

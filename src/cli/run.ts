@@ -5,6 +5,7 @@
  */
 import { isDwError, DwError } from '../errors.js';
 import { parseOptions } from './args.js';
+import { cliLine } from './suggest.js';
 import { COMMANDS } from './commands/index.js';
 import type { Command } from './commands/command.js';
 import { processIo, type CliIo } from './io.js';
@@ -75,7 +76,7 @@ export async function runCli(argv: string[], io: CliIo = processIo): Promise<num
       // one line whatever the message quotes (a quoted cell may hold a line break), ending with the
       // stable code that docs/errors-and-limits.md lists
       const e = err as DwError;
-      io.err(`exact-dw: ${e.toLine().replace(/[\u0000-\u001f\u007f]+/g, ' ')} [${e.code}]\n`);
+      io.err(`exact-dw: ${cliLine(e).replace(/[\u0000-\u001f\u007f]+/g, ' ')} [${e.code}]\n`);
       return 2;
     }
     const e = err as Error;

@@ -29,9 +29,30 @@ export interface TailProbability {
   relativeError: number;
   /** Engine that produced the number. */
   method: EngineName;
-  /** Why this engine answered (set by the `auto` chooser). */
-  reason?: string;
+  /** Why this engine answered (set by the `auto` chooser), as a typed code; words in src/report/wording.ts. */
+  reason?: EngineChoice;
 }
+
+/**
+ * Why the `auto` chooser let an engine answer, as plain data (the words are in
+ * src/report/wording.ts). New codes may be added; existing ones keep their meaning.
+ */
+export type EngineChoice =
+  /** n is large and the operator a union of chains: the DCT eigenbasis route (closed-form eigenbasis). */
+  | { code: 'LARGE_N_DCT'; n: number; smallTail?: { relativeError: number } }
+  /** n is large: the eigen-free engine, no spectrum needed. */
+  | { code: 'LARGE_N_EIGENFREE'; n: number; smallTail?: { relativeError: number } }
+  /** Imhof's integral on the spectrum, accurate enough here. */
+  | { code: 'IMHOF_SPECTRUM' }
+  /** A small tail probability: Pan's finite-range form, with relative accuracy. */
+  | { code: 'SMALL_TAIL_PAN' }
+  /**
+   * A small tail probability: the inversion on a line through the saddlepoint, for relative
+   * accuracy; `pan` says why Pan's form did not answer instead.
+   */
+  | { code: 'SMALL_TAIL_SADDLEPOINT'; pan: 'less-accurate' | 'could-not-vouch' | 'not-applicable' }
+  /** A small tail probability, and Imhof's integral on the spectrum was still the most accurate. */
+  | { code: 'SMALL_TAIL_IMHOF'; relativeError: number };
 
 /**
  * A symmetric band matrix stored by diagonals: `bands[0]` is the main diagonal (length n),

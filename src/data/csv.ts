@@ -9,7 +9,7 @@
  * docs/errors-and-limits.md (checked against test/catalogue.test.ts).
  */
 import Papa from 'papaparse';
-import { DwError } from '../errors.js';
+import { DwError, type DwSuggestion } from '../errors.js';
 
 /** How the CSV text is to be read. */
 export interface CsvOptions {
@@ -127,8 +127,8 @@ export function parseCsv(text: string, options: CsvOptions = {}): DataTable {
   rows.forEach((r, i) => {
     if (blank(r)) {
       throw new DwError('CELL_EMPTY', `Data row ${i + 1} of ${source} is blank.`,
-        'Remove the blank line; if it stands for a missing period, remove it and give a --time column so the gap is honoured.',
-        { file, row: i + 1 });
+        'Remove the blank line; if it stands for a missing period, remove it and name the time column so the gap is honoured.',
+        { file, row: i + 1, suggest: [{ option: 'time' }] });
     }
     if (r.length !== headers.length) {
       const splitComma = delimiter === ',' && r.length > headers.length;
@@ -186,7 +186,8 @@ function detectDecimal(rows: string[][], delimiter: string, source: string, file
   if (commas > 0 && points > 0) {
     throw new DwError('CSV_AMBIGUOUS_DECIMAL',
       `${cap(source)} mixes decimal commas (${commas} cells, such as '${commaCell}') and decimal points (${points} cells, such as '${pointCell}').`,
-      "Say which is the decimal mark with --decimal comma or --decimal point (a point may be a thousands separator: remove those).", { file });
+      "Say which is the decimal mark, decimal 'comma' or 'point' (a point may be a thousands separator: remove those).",
+      { file, suggest: [{ option: 'decimal', value: 'comma' }, { option: 'decimal', value: 'point' }] });
   }
   return commas > 0 ? 'comma' : 'point';
 }
@@ -215,7 +216,8 @@ export function parseCell(table: DataTable, row: number, column: string, text: s
   }
   const pattern = table.decimal === 'comma' ? COMMA_NUMBER : POINT_NUMBER;
   if (!pattern.test(v)) {
-    throw new DwError('CELL_NOT_NUMERIC', `'${v}' at ${where} is not a number.`, notNumberHint(table, v), detail);
+    const { hint, suggest } = notNumberHint(table, v);
+    throw new DwError('CELL_NOT_NUMERIC', `'${v}' at ${where} is not a number.`, hint, suggest ? { ...detail, suggest } : detail);
   }
   if (table.decimal === 'comma') v = v.replace(',', '.');
   const x = Number(v);
@@ -230,21 +232,25 @@ export function parseCell(table: DataTable, row: number, column: string, text: s
   return x;
 }
 
-function notNumberHint(table: DataTable, v: string): string {
+function notNumberHint(table: DataTable, v: string): { hint: string; suggest?: DwSuggestion[] } {
+  const comma: DwSuggestion[] = [{ option: 'decimal', value: 'comma' }];
   if (table.decimal === 'point' && COMMA_THOUSANDS.test(v) && table.delimiter === ',') {
-    return `If ${v} groups thousands, remove the commas; if it has a decimal comma, add --decimal comma.`;
+    return { hint: `If ${v} groups thousands, remove the commas; if it has a decimal comma, read the file with decimal 'comma'.`, suggest: comma };
   }
   if (table.decimal === 'point' && COMMA_NUMBER.test(v)) {
-    return table.delimiter === ','
-      ? 'This looks like a decimal comma: add --decimal comma (the cells must be quoted), or save the file with ; as the delimiter.'
-      : 'This looks like a decimal comma: add --decimal comma.';
+    return {
+      hint: table.delimiter === ','
+        ? "This looks like a decimal comma: read the file with decimal 'comma' (the cells must be quoted), or save it with ; as the delimiter."
+        : "This looks like a decimal comma: read the file with decimal 'comma'.",
+      suggest: comma,
+    };
   }
   if (table.decimal === 'comma' && (POINT_THOUSANDS.test(v) || POINT_NUMBER.test(v))) {
-    return `The file is read with decimal commas; if the points in ${v} group thousands, remove them, otherwise add --decimal point.`;
+    return { hint: `The file is read with decimal commas; if the points in ${v} group thousands, remove them, otherwise read it with decimal 'point'.`, suggest: [{ option: 'decimal', value: 'point' }] };
   }
-  if (/%$/.test(v)) return 'Remove the % sign (write 5% as 5 or 0.05).';
-  if (/^[\u2212\u2013]/.test(v)) return 'Use the ASCII minus sign (-) instead of a typographic one.';
-  return 'Every value in a column used by the model must be a plain number such as 12.5 or -3e-4.';
+  if (/%$/.test(v)) return { hint: 'Remove the % sign (write 5% as 5 or 0.05).' };
+  if (/^[\u2212\u2013]/.test(v)) return { hint: 'Use the ASCII minus sign (-) instead of a typographic one.' };
+  return { hint: 'Every value in a column used by the model must be a plain number such as 12.5 or -3e-4.' };
 }
 
 /**

@@ -14,8 +14,8 @@
  *    R^2 = 1 - RSS_aux / e'e (which is the centred R^2 when X has an intercept, since then the
  *    residuals have mean zero). LM = n R^2 ~ chi^2_p asymptotically; F form
  *    F = (R^2 / p) / ((1 - R^2) / (n - k - p)) ~ F(p, n - k - p) approximately.
- *  - Residual t-test (Durbin's 1970 suggestion for when h is undefined, here in the p = 1 form of
- *    the auxiliary regression): t = estimate / standard error of the coefficient of e_{t-1};
+ *  - Durbin's alternative test (Durbin 1970, for when h is undefined; here in the p = 1 form of
+ *    the auxiliary regression, a t-test on the lagged residual): t = estimate / standard error of the coefficient of e_{t-1};
  *    asymptotically N(0, 1) (one-sided by the alternative, like h); the Student t(n - k - 1)
  *    p-value is given beside it as a small-sample variant.
  *
@@ -31,14 +31,27 @@ import { checkAlternative, type Alternative } from '../core/alternative.js';
 import { chiSquareSf, fSf, normalSf, studentTSf } from './tails.js';
 import { detectLaggedDependent } from './lagged-dependent.js';
 
+/** Whether Durbin's h is defined: `DURBIN_H_DEFINED` when n V < 1, else `DURBIN_H_UNDEFINED`. */
+export type DurbinHStatus = 'DURBIN_H_DEFINED' | 'DURBIN_H_UNDEFINED';
+
+/**
+ * A note of the diagnosis of a dynamic model, as plain data (the same shapes as the test result's
+ * warnings of src/inference/warnings.ts; words in src/report/wording.ts).
+ */
+export type DynamicNote =
+  /** The regressor `column` is y lagged one period: d is not a valid test; h and Breusch-Godfrey replace it. */
+  | { code: 'D_NOT_VALID_LAGGED_DEPENDENT'; column: string; how: 'declared' | 'detected'; hDefined: boolean; bgOrder: number }
+  /** The declared lagged dependent column is not y lagged one period in the data. */
+  | { code: 'LAGGED_DEPENDENT_MISMATCH'; column: string };
+
 /** Durbin's h with the quantities it is made of. */
 export interface DurbinH {
   /** h, or null when n V >= 1. */
   h: number | null;
   /** p-value from the standard normal for the chosen alternative (null when h is undefined). */
   pValue: number | null;
-  /** Why h is or is not defined, in words. */
-  reason: string;
+  /** Whether h is defined (n V < 1) or not, as a typed code; the words are in src/report/wording.ts. */
+  status: DurbinHStatus;
   /** First-order residual autocorrelation used. */
   r1: number;
   /** 1 - d/2, the usual shortcut for r1 (common practice), for comparison. */
@@ -119,10 +132,12 @@ export interface DynamicDiagnosis extends DynamicModelCheck {
   alternative: Alternative;
   /** Every statistic here is asymptotic (labelled so in reports). */
   asymptotic: true;
-  /** The sentence for the result's warnings: d is not valid here, and what to use. */
-  message: string;
-  /** Further remarks (e.g. a declared column that does not match y lagged). */
-  notes: string[];
+  /**
+   * The notes of the diagnosis as typed codes: first `D_NOT_VALID_LAGGED_DEPENDENT` (d is not
+   * valid here, and what to use), then any further remark (a declared column that does not match
+   * y lagged). The words are in src/report/wording.ts.
+   */
+  notes: DynamicNote[];
 }
 
 function oneSided(z: number, alternative: Alternative, sf: (v: number) => number): number {
@@ -234,7 +249,7 @@ export function residualT(fd: FactoredDesign, e: Float64Array, alternative: Alte
  * @example
  * ```ts
  * const h = durbinH(fit, fd.design.names.indexOf('ylag'), 'positive');
- * h.h; h.pValue; h.reason;
+ * h.h; h.pValue; h.status; // 'DURBIN_H_DEFINED' when n V < 1
  * ```
  */
 export function durbinH(fit: LeastSquaresFit, index: number, alternative: Alternative = 'positive', times?: ArrayLike<number>): DurbinH {
@@ -252,19 +267,13 @@ export function durbinH(fit: LeastSquaresFit, index: number, alternative: Altern
   const nV = n * variance;
   if (!(nV < 1)) {
     return {
-      h: null, pValue: null, r1, r1FromD, variance, nV, n,
-      reason: `Durbin's h is undefined here: n V = ${fmt(nV)} >= 1 (V = ${fmt(variance)} is the estimated variance of the lagged-dependent coefficient), so 1 - n V has no square root. Use the Breusch-Godfrey test or the residual t-test, which remain valid.`,
+      h: null, pValue: null, r1, r1FromD, variance, nV, n, status: 'DURBIN_H_UNDEFINED',
     };
   }
   const h = r1 * Math.sqrt(n / (1 - nV));
   return {
-    h, pValue: oneSided(h, alternative, normalSf), r1, r1FromD, variance, nV, n,
-    reason: `defined: n V = ${fmt(nV)} < 1; h = r1 sqrt(n / (1 - n V)) with r1 = ${fmt(r1)}, asymptotically N(0, 1).`,
+    h, pValue: oneSided(h, alternative, normalSf), r1, r1FromD, variance, nV, n, status: 'DURBIN_H_DEFINED',
   };
-}
-
-function fmt(v: number): string {
-  return Number.isFinite(v) ? Number(v.toPrecision(4)).toString() : String(v);
 }
 
 /** Build, factor and fit; returns the pieces every check needs. */
@@ -277,7 +286,7 @@ function fitModel(input: SerialTestInput): { fd: FactoredDesign; fit: LeastSquar
 }
 
 /**
- * The Breusch-Godfrey test, the residual t-test and, when `laggedDependent` names a regressor,
+ * The Breusch-Godfrey test, Durbin's alternative test (the t-test on the lagged residual) and, when `laggedDependent` names a regressor,
  * Durbin's h: the checks for serial correlation that do not rely on d.
  *
  * @example
@@ -323,14 +332,14 @@ export interface DynamicCheckInput extends SerialTestInput {
 
 /**
  * When the regressors include y lagged one period: the diagnosis that d is not valid, with
- * Durbin's h, the Breusch-Godfrey test and the residual t-test in its place (all asymptotic).
+ * Durbin's h, the Breusch-Godfrey test and Durbin's alternative test in its place (all asymptotic).
  * Returns null when no lagged dependent variable is declared or detected.
  *
  * @example
  * ```ts
  * const r = dynamicModelCheck({ y, x: { income, ylag }, order: 4 });
  * r?.laggedDependent;      // 'ylag' (detected)
- * r?.durbinH.h;            // Durbin's h, or null with r.durbinH.reason
+ * r?.durbinH.h;            // Durbin's h, or null with r.durbinH.status 'DURBIN_H_UNDEFINED'
  * r?.breuschGodfrey.pChiSquare;
  * ```
  */
@@ -338,7 +347,8 @@ export function dynamicModelCheck(input: DynamicCheckInput): DynamicDiagnosis | 
   if (input.laggedDependent === false) return null;
   const { fd, fit, alternative, order } = fitModel(input);
   const { n, k, names, x, interceptAdded } = fd.design;
-  const notes: string[] = [];
+  const notes: DynamicNote[] = [];
+  let mismatch = false;
   let name: string;
   let how: 'declared' | 'detected';
   const columns: Record<string, Float64Array> = {};
@@ -348,7 +358,7 @@ export function dynamicModelCheck(input: DynamicCheckInput): DynamicDiagnosis | 
     how = 'declared';
     columnOf(names, name);
     if (detectLaggedDependent(input.y, { [name]: columns[name] ?? new Float64Array(n) }, input.times) === null) {
-      notes.push(`The declared column '${name}' is not equal to y lagged one period in these data; the checks treat it as the lagged dependent variable all the same.`);
+      mismatch = true;
     }
   } else {
     const found = detectLaggedDependent(input.y, columns, input.times);
@@ -360,9 +370,8 @@ export function dynamicModelCheck(input: DynamicCheckInput): DynamicDiagnosis | 
   const h = durbinH(fit, columnOf(names, name), alternative, input.times);
   const bg = breuschGodfrey(fd, fit.residuals, order, input.times);
   const rt = residualT(fd, fit.residuals, alternative, input.times);
-  const message = `The regressor '${name}' is the dependent variable lagged one period (${how === 'declared' ? 'as declared' : 'detected in the data'}): `
-    + 'd is then biased towards 2 and its exact null distribution does not hold, so the Durbin-Watson p-value is not a valid test here. '
-    + `Use Durbin's h${h.h === null ? ' (undefined for these data)' : ''} or the Breusch-Godfrey test of order ${order} (both asymptotic).`;
+  notes.push({ code: 'D_NOT_VALID_LAGGED_DEPENDENT', column: name, how, hDefined: h.h !== null, bgOrder: order });
+  if (mismatch) notes.push({ code: 'LAGGED_DEPENDENT_MISMATCH', column: name });
   return {
     laggedDependent: name,
     how,
@@ -371,7 +380,6 @@ export function dynamicModelCheck(input: DynamicCheckInput): DynamicDiagnosis | 
     residualT: rt,
     alternative,
     asymptotic: true,
-    message,
     notes,
   };
 }

@@ -45,7 +45,7 @@ export interface EngineOptions {
 function eigenfree(source: NullSource, c: number, tail: Tail, tolerance?: number): TailProbability {
   if (!source.operator || !source.basis) {
     throw new DwError('ENGINE_NOT_APPLICABLE', 'The eigen-free engine needs a design (operator and regressors), not a bare spectrum.',
-      'Use --method imhof or pan for a given spectrum.');
+      "Choose the Imhof or Pan engine (method 'imhof' or 'pan') for a given spectrum.", { suggest: [{ option: 'method', value: 'imhof' }, { option: 'method', value: 'pan' }] });
   }
   const below = tail === 'lower';
   const r = integrateImhof(eigenfreeForm(source.operator, source.basis, c, below ? 1 : -1), { tolerance });
@@ -55,7 +55,7 @@ function eigenfree(source: NullSource, c: number, tail: Tail, tolerance?: number
 function dct(source: NullSource, c: number, tail: Tail, tolerance?: number): TailProbability {
   if (!source.operator || !source.basis) {
     throw new DwError('ENGINE_NOT_APPLICABLE', 'The DCT route needs a design (operator and regressors), not a bare spectrum.',
-      'Use --method imhof or pan for a given spectrum.');
+      "Choose the Imhof or Pan engine (method 'imhof' or 'pan') for a given spectrum.", { suggest: [{ option: 'method', value: 'imhof' }, { option: 'method', value: 'pan' }] });
   }
   return dctTail(source.operator, source.basis, c, tail, { tolerance });
 }
@@ -91,7 +91,8 @@ export function tailProbability(source: NullSource, c: number, tail: Tail, optio
       const nu = source.spectrum();
       const ok = panApplicable(nu, c);
       if (!ok.ok) {
-        throw new DwError('ENGINE_NOT_APPLICABLE', `Pan's engine does not apply here: ${ok.reason}.`, 'Use --method auto or imhof.');
+        throw new DwError('ENGINE_NOT_APPLICABLE', `Pan's engine does not apply here: ${ok.reason}.`, "Choose method 'auto' or 'imhof'.",
+          { suggest: [{ option: 'method', value: 'auto' }, { option: 'method', value: 'imhof' }] });
       }
       return panTail(nu, c, tail, tolerance === undefined ? {} : { tolerance: Math.max(tolerance, 1e-12) });
     }
@@ -115,21 +116,19 @@ function auto(source: NullSource, c: number, tail: Tail, tolerance?: number): Ta
   if (source.operator && n > AUTO_SPECTRUM_MAX_N) {
     const useDct = dctApplies(source);
     const ef = useDct ? dct(source, c, tail, tolerance) : eigenfree(source, c, tail, tolerance);
-    const what = useDct
-      ? `DCT eigenbasis route: n = ${n} is large and the operator is a union of chains, whose eigenbasis is known in closed form (O(n k^2) per evaluation after one fast transform)`
-      : `eigen-free engine: n = ${n} is large, so no spectrum is needed (O(n k) per evaluation)`;
+    const code = useDct ? 'LARGE_N_DCT' : 'LARGE_N_EIGENFREE';
     if ((ef.p > 0 && ef.relativeError <= AUTO_RELATIVE_TARGET) || (ef.p === 0 && ef.errorBound === 0)) {
-      return { ...ef, reason: what };
+      return { ...ef, reason: { code, n } };
     }
     if (n > FAST_SPECTRUM_MAX_N) {
-      return { ...ef, reason: `${what} (small tail: relative error ${ef.relativeError.toExponential(1)}; n = ${n} is beyond the spectrum the tail engines need)` };
+      return { ...ef, reason: { code, n, smallTail: { relativeError: ef.relativeError } } };
     }
     // a small tail at moderate n: the spectrum (O(k n^2)) buys relative accuracy below
   }
   const nu = source.spectrum();
   const im = imhofTail(nu, c, tail, { tolerance });
   if (c <= nu[0] || c >= nu[nu.length - 1] || im.relativeError <= AUTO_RELATIVE_TARGET) {
-    return { ...im, reason: 'Imhof integral on the spectrum' };
+    return { ...im, reason: { code: 'IMHOF_SPECTRUM' } };
   }
   // a small tail: Pan's form (when it applies) and the shifted inversion both aim at relative
   // accuracy; the one reporting the smaller relative error answers
@@ -143,11 +142,10 @@ function auto(source: NullSource, c: number, tail: Tail, tolerance?: number): Ta
   }
   const shifted = contourTail(nu, c, tail);
   if (pan && pan.relativeError <= shifted.relativeError && pan.relativeError < im.relativeError) {
-    return { ...pan, reason: "Pan's finite-range form: the tail probability is small, and Pan computes it with relative accuracy" };
+    return { ...pan, reason: { code: 'SMALL_TAIL_PAN' } };
   }
   if (shifted.relativeError < im.relativeError) {
-    const why = ok.ok ? (pan ? "more accurate here than Pan's form" : "Pan's form could not vouch for its number") : `Pan's form does not apply (${ok.reason})`;
-    return { ...shifted, reason: `inversion integral on a line through the saddlepoint: the tail probability is small and this keeps relative accuracy (${why})` };
+    return { ...shifted, reason: { code: 'SMALL_TAIL_SADDLEPOINT', pan: ok.ok ? (pan ? 'less-accurate' : 'could-not-vouch') : 'not-applicable' } };
   }
-  return { ...im, reason: `Imhof integral on the spectrum (small tail; its relative error is ${im.relativeError.toExponential(1)})` };
+  return { ...im, reason: { code: 'SMALL_TAIL_IMHOF', relativeError: im.relativeError } };
 }

@@ -155,9 +155,25 @@ export interface ExactPower extends PowerSummary {
   errorBound: number;
   /** The route that computed the power (`dense` or `eigenfree`). */
   route: Exclude<PowerRoute, 'auto'>;
-  /** Remarks worth showing with the curve (the route; power that falls as |rho| grows; ...). */
-  notes: string[];
+  /**
+   * Remarks worth showing with the curve (the route; power that falls as |rho| grows; ...), as
+   * typed codes with plain fields; the words are in src/report/wording.ts.
+   */
+  notes: PowerNote[];
 }
+
+/** A remark on a power result, as plain data. New codes may be added; existing ones keep their meaning. */
+export type PowerNote =
+  /** On the side tested, the power falls as |rho| grows from `from` to `to` (both on the curve). */
+  | { code: 'POWER_FALLS'; from: number; to: number }
+  /** The rho at which the target power is reached was not searched for. */
+  | { code: 'TARGET_NOT_SEARCHED'; target: number }
+  /** The target power is not reached for |rho| <= 0.99. */
+  | { code: 'TARGET_NOT_REACHED'; target: number }
+  /** The route that computed the power; `bySize` when `auto` took the eigen-free route for the size of n. */
+  | { code: 'POWER_ROUTE'; route: 'dense' | 'eigenfree'; n: number; bySize: boolean }
+  /** `count` probabilities within `within` of 0 or 1 by Chernoff's bound were settled by it. */
+  | { code: 'CHERNOFF_SETTLED'; count: number; within: number };
 
 /**
  * P(d <= c | rho) (`lower`) or P(d >= c | rho) (`upper`) for the design behind `ctx`, by Imhof's
@@ -274,24 +290,19 @@ export function powerForProblem(problem: DwProblem, options: PowerOptions): Exac
   const rhoAtTarget = searched ? findTarget((r) => at(side * r).power, alpha, target, grid) : null;
   let errorBound = 0;
   for (const p of curve) errorBound = Math.max(errorBound, p.errorBound);
-  const notes: string[] = [];
+  const notes: PowerNote[] = [];
   // on the side the test is aimed at, power usually rises with |rho|; for some designs it does not
   const aimed = curve.filter((p) => side * p.rho > 0).sort((a, b) => side * (a.rho - b.rho));
   for (let i = 1; i < aimed.length; i++) {
     if (aimed[i].power < aimed[i - 1].power - 1e-9) {
-      notes.push(`For this design the power falls as |rho| grows from ${aimed[i - 1].rho} to ${aimed[i].rho}: the test can lose power against strong autocorrelation.`);
+      notes.push({ code: 'POWER_FALLS', from: aimed[i - 1].rho, to: aimed[i].rho });
       break;
     }
   }
-  if (!searched) notes.push(`The rho at which power ${target} is reached was not searched for.`);
-  else if (rhoAtTarget === null) notes.push(`Power ${target} is not reached for |rho| <= 0.99.`);
-  notes.push(route === 'dense'
-    ? `Route: dense (the weights of the quadratic form from an eigen-decomposition for each rho; n = ${n}).`
-    : `Route: eigen-free (banded factorisations of the inverse error covariance, no eigenvalues; n = ${n}${requested === 'auto' ? ', too large for the dense route to be the faster' : ''}).`);
-  if (bounded > 0) {
-    const one = bounded === 1;
-    notes.push(`${bounded} ${one ? 'probability' : 'probabilities'} behind this result (curve and target search) ${one ? 'lies' : 'lie'} within ${(0.1 * (tol ?? 1e-11)).toExponential(0)} of 0 or 1 by Chernoff's bound and ${one ? 'was' : 'were'} settled by it (answer 0 or 1, the bound as its error).`);
-  }
+  if (!searched) notes.push({ code: 'TARGET_NOT_SEARCHED', target });
+  else if (rhoAtTarget === null) notes.push({ code: 'TARGET_NOT_REACHED', target });
+  notes.push({ code: 'POWER_ROUTE', route, n, bySize: route === 'eigenfree' && requested === 'auto' });
+  if (bounded > 0) notes.push({ code: 'CHERNOFF_SETTLED', count: bounded, within: 0.1 * (tol ?? 1e-11) });
   return {
     alpha,
     critical,

@@ -12,5 +12,5 @@ export { citations, citedKeys, citeInline, formatReference, savinWhiteCovers, WO
 export { renderDensitySvg, densityCurve, plotDomain, type DensityPlotOptions, type DensityCurve } from './svg.js';
 export { buildReport, type ReportDocument, type ReportSection, type ReportBlock } from './document.js';
 export type { InlineFormat } from './format.js';
-export { warningText, timeIndexWords, nextStepsWords, boundsResolutionWords, rowList } from './wording.js';
+export { warningText, timeIndexWords, nextStepsWords, boundsResolutionWords, engineChoiceWords, durbinHWords, powerNoteText, rowList } from './wording.js';
 export { inline } from './format.js';

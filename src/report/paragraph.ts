@@ -7,6 +7,7 @@
  */
 import type { DwTestResult } from '../inference/dw-test.js';
 import { VERSION } from '../version.js';
+import { nVRelation } from './wording.js';
 import { dIsValid, engineKeys, savinWhiteCovers } from './citations.js';
 import { alternativeWords, describePower, dynamicVerdict, nullWords, processFormula } from './document.js';
 import type { ProbabilityContext } from '../core/format-number.js';
@@ -105,11 +106,6 @@ function staticParagraph(r: DwTestResult): string[] {
   return s;
 }
 
-/** The short reason h is undefined, "n V = 1.31 >= 1", from the library's longer one. */
-function undefinedWhy(reason: string): string {
-  const m = /n V = ([^ ,;)]+) >= 1/.exec(reason);
-  return m ? math(`nV = ${m[1]} \\ge 1`, `n V = ${m[1]} >= 1`, `*nV* = ${m[1]} ≥ 1`) : math('nV \\ge 1', 'n V >= 1', '*nV* ≥ 1');
-}
 
 function dynamicParagraph(r: DwTestResult): string[] {
   const dyn = r.dynamic!;
@@ -121,7 +117,7 @@ function dynamicParagraph(r: DwTestResult): string[] {
   const h = dyn.durbinH;
   const hText = h.h !== null && Number.isFinite(h.h)
     ? `Durbin's ${sym('h')} ${cite('durbin-1970')}, ${sym('h')} = ${fixed(h.h, 2)}${h.pValue !== null ? ` (asymptotic ${pPhrase(h.pValue, { alpha: r.alpha })})` : ''}`
-    : `Durbin's ${sym('h')} ${cite('durbin-1970')}, which is undefined here (${undefinedWhy(h.reason)})`;
+    : `Durbin's ${sym('h')} ${cite('durbin-1970')}, which is undefined here (${nVRelation(h.nV, 'ge')})`;
   s.push(`Serial correlation was instead tested with ${hText}, and with the Breusch${sym('ndash')}Godfrey Lagrange-multiplier test of order ${bg.order} ` +
     `${cite('breusch-1978', 'godfrey-1978')}, LM = ${fixed(bg.lm, 2)} (asymptotic ${sym('chi2')} ${pPhrase(bg.pChiSquare, { alpha: r.alpha })}); ${dynamicVerdict(r, `at the ${percent(r.alpha)}${sym('percent')} level`)}.`);
   return s;

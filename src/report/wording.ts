@@ -3,11 +3,18 @@
  * sentences that every report format, the command line and the page share: how the time index
  * was chosen, which rows were dropped, and the usual next steps after a rejection. Written once, in
  * the neutral markup of format.ts (render with `inline(text, format)`), so that no two outputs
- * can word the same note differently.
+ * can word the same note differently. The words for the other typed parts of results live beside
+ * it in src/report/wording/ and are re-exported here: the bounds-test resolution (bounds.ts), the
+ * engine choice (engine.ts), Durbin's h and the dynamic checks (dynamic.ts), power notes (power.ts).
  */
 import type { BatchNote, DwWarning, PanelNote } from '../inference/warnings.js';
 import type { TimeColumnInfo } from '../inference/data-input.js';
 import { andList, code, sym } from './format.js';
+
+export { boundsResolutionWords } from './wording/bounds.js';
+export { engineChoiceWords } from './wording/engine.js';
+export { durbinHWords, nVRelation, fourDigits, type DurbinHFacts } from './wording/dynamic.js';
+export { powerNoteText } from './wording/power.js';
 
 const FORMAT_WORDS = { integer: 'whole numbers', quarter: 'quarter labels', month: 'month labels', date: 'ISO dates' } as const;
 
@@ -97,23 +104,6 @@ export function nextStepsWords(): string {
     'Usual next steps: check the specification; respecify the dynamics (for example add lags of the variables); or keep the model and use ' +
     'standard errors that are robust to autocorrelation, or estimate it by feasible generalised least squares under an autocorrelated error model.';
 }
-
-/**
- * The bounds-test sentence of src/bounds/zone.ts in the reports' wording: a test "does not
- * reject"; it never "finds no evidence".
- *
- * @example
- * ```ts
- * boundsResolutionWords('... the bounds test finds no evidence of positive autocorrelation at 5%');
- * // "... the bounds test does not reject no autocorrelation against positive autocorrelation at 5%"
- * ```
- */
-export function boundsResolutionWords(text: string): string {
-  return text.replace(/finds no evidence of autocorrelation in either direction/g, 'does not reject no autocorrelation against autocorrelation of either sign')
-    .replace(/finds no evidence of (positive|negative) autocorrelation/g, 'does not reject no autocorrelation against $1 autocorrelation')
-    .replace(/finds no evidence\b/g, 'does not reject');
-}
-
 
 /** Every typed note of a batch or a panel. */
 export type Note = PanelNote | BatchNote;

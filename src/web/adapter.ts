@@ -15,7 +15,8 @@ import { renderText } from '../report/text.js';
 import { renderDensitySvg, paperParagraph, renderMarkdown } from '../report/index.js'; // REPORTS
 import { powerForProblem } from '../power/exact-power.js'; // POWER
 import { inline } from '../report/format.js';
-import { boundsResolutionWords, timeIndexWords, warningText } from '../report/wording.js';
+import { boundsResolutionWords, durbinHWords, engineChoiceWords, timeIndexWords, warningText } from '../report/wording.js';
+import type { BoundsZone } from '../inference/dw-test.js';
 import type { DwWarning } from '../inference/warnings.js';
 
 /**
@@ -35,11 +36,35 @@ export function warningWords(w: DwWarning): string {
  *
  * @example
  * ```ts
- * resolutionWords(result.bounds!.resolution);
+ * resolutionWords(result.bounds!);
  * ```
  */
-export function resolutionWords(text: string): string {
-  return inline(boundsResolutionWords(text), 'text');
+export function resolutionWords(zone: BoundsZone): string {
+  return inline(boundsResolutionWords(zone), 'text');
+}
+
+/**
+ * Why the engine answered, in the reports' wording ('' when the engine was named).
+ *
+ * @example
+ * ```ts
+ * engineChoiceText(result); // "Imhof integral on the spectrum"
+ * ```
+ */
+export function engineChoiceText(r: DwTestResult): string {
+  return r.methodChoice ? inline(engineChoiceWords(r.methodChoice), 'text') : '';
+}
+
+/**
+ * Whether Durbin's h is defined, in the reports' wording.
+ *
+ * @example
+ * ```ts
+ * durbinHText(result.dynamic!.durbinH); // "Durbin's h is undefined here: n V = 1.31 >= 1 ..."
+ * ```
+ */
+export function durbinHText(h: NonNullable<DwTestResult['dynamic']>['durbinH']): string {
+  return inline(durbinHWords(h), 'text');
 }
 
 /**

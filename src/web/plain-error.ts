@@ -1,36 +1,48 @@
 /**
  * Any failure as the user of the page should see it: the library's DwError message and hint, with
- * the command-line options they may mention (--time, --decimal comma, ...) named as the page's own
- * controls; anything else in plain words, with no stack trace.
+ * the settings the error suggests (`detail.suggest`, by library option name) named as the page's
+ * own controls; anything else in plain words, with no stack trace.
  */
-import { isDwError } from '../errors.js';
+import { isDwError, type DwSuggestion } from '../errors.js';
 import type { PlainError } from './protocol.js';
 
-/** Command-line options in library hints, and the page control that does the same. */
-const CONTROLS: [RegExp, (value: string) => string][] = [
-  [/--time(?: ([A-Za-z_][\w]*))?\b/g, () => 'the "Time column" choice'],
-  [/--decimal (comma|point)\b/g, (v) => `"Decimal mark: ${v}" under "How to read the file"`],
-  [/--decimal\b/g, () => '"Decimal mark" under "How to read the file"'],
-  [/--delimiter (?:'([^']*)'|(\S+))/g, (v) => `"Field delimiter: ${v}" under "How to read the file"`],
-  [/--method (imhof|pan|eigenfree|saddlepoint|dct|auto)\b/g, (v) => `the engine "${v}" under "Numerical engine"`],
-  [/--no-intercept\b/g, () => 'unticking "Add an intercept"'],
-  [/--lag\b/g, () => 'the lag'],
-  [/--alpha\b/g, () => 'the significance level'],
-];
-
 /**
- * A library text with command-line options named as the page's controls.
+ * The page control that makes one suggested setting.
  *
  * @example
  * ```ts
- * forThePage('This looks like a decimal comma: add --decimal comma.');
- * // 'This looks like a decimal comma: add "Decimal mark: comma" under "How to read the file".'
+ * pageControl({ option: 'decimal', value: 'comma' }); // '"Decimal mark: comma" under "How to read the file"'
  * ```
  */
-export function forThePage(text: string): string {
-  let out = text;
-  for (const [pattern, name] of CONTROLS) out = out.replace(pattern, (_m, a?: string, b?: string) => name(a ?? b ?? ''));
-  return out;
+export function pageControl(s: DwSuggestion): string {
+  switch (s.option) {
+    case 'method':
+      return `the engine "${String(s.value ?? 'auto')}" under "Numerical engine"`;
+    case 'decimal':
+      return s.value === undefined ? '"Decimal mark" under "How to read the file"' : `"Decimal mark: ${String(s.value)}" under "How to read the file"`;
+    case 'time':
+      return 'the "Time column" choice';
+    case 'intercept':
+      return s.value === false ? 'unticking "Add an intercept"' : 'ticking "Add an intercept"';
+    case 'n':
+      return `the sample sizes n${s.value === undefined ? '' : ` (${String(s.value)})`}`;
+  }
+}
+
+/**
+ * A hint with its suggested settings named as the page's controls ("... On this page: ...").
+ *
+ * @example
+ * ```ts
+ * pageHint('Read the file with decimal \'comma\'.', [{ option: 'decimal', value: 'comma' }]);
+ * // 'Read the file with decimal \'comma\'. On this page: "Decimal mark: comma" under "How to read the file".'
+ * ```
+ */
+export function pageHint(hint: string, suggest: DwSuggestion[] = []): string {
+  const controls = [...new Set(suggest.map(pageControl))];
+  if (controls.length === 0) return hint;
+  const tail = `On this page: ${controls.join(' or ')}.`;
+  return hint ? `${hint} ${tail}` : tail;
 }
 
 /**
@@ -42,7 +54,7 @@ export function forThePage(text: string): string {
  * ```
  */
 export function plainError(err: unknown): PlainError {
-  if (isDwError(err)) return { code: err.code, message: forThePage(err.message), hint: forThePage(err.hint) };
+  if (isDwError(err)) return { code: err.code, message: err.message, hint: pageHint(err.hint, err.detail?.suggest) };
   const what = err instanceof Error ? err.message : String(err);
   return {
     code: 'INTERNAL',

@@ -5,7 +5,7 @@
  */
 import type { BoundsZone, DwTestResult } from '../inference/dw-test.js';
 import { INTERCEPT_NAME } from '../model/design.js';
-import { capabilities, resolutionWords, timeIndexText, warningWords, type ReportExtras } from './adapter.js';
+import { capabilities, durbinHText, engineChoiceText, resolutionWords, timeIndexText, warningWords, type ReportExtras } from './adapter.js';
 import { copyText, h, placeSvg, saveText, symbolText } from './dom.js';
 import type { OptionalPart, PlainError } from './protocol.js';
 import { atNumericalLimit, formatBound, formatLevel, formatNumber, formatProbability, formatStatistic } from './format.js';
@@ -131,7 +131,7 @@ function pValueCard(r: DwTestResult): HTMLElement {
     pair('P(D \u2265 d): negative', formatProbability(r.pNegative, pc), 'p-negative', mark('negative')),
     pair('two-sided', formatProbability(r.pTwoSided, pc), 'p-two-sided', mark('two-sided')),
     pair('numerical error below', formatBound(r.errorBound), 'error-bound'),
-    pair('engine', r.method, 'method', `${engineDescription(r.method)}${r.methodReason ? ` (${r.methodReason})` : ''}`),
+    pair('engine', r.method, 'method', `${engineDescription(r.method)}${r.methodChoice ? ` (${engineChoiceText(r)})` : ''}`),
   ]));
 }
 
@@ -157,7 +157,7 @@ function boundsPanel(r: DwTestResult): HTMLElement {
         pair(h('span', {}, ...symbolText('d_U')), formatStatistic(b.dU), 'dU'),
       ]),
       h('p', { 'data-field': 'zone', 'data-zone': b.zone }, ...symbolText(ZONE_WORDS[b.zone])),
-      h('p', { class: 'resolution', 'data-field': 'resolution' }, ...symbolText(resolutionWords(b.resolution))),
+      h('p', { class: 'resolution', 'data-field': 'resolution' }, ...symbolText(resolutionWords(b))),
     );
     return panel;
   }
@@ -208,7 +208,7 @@ function dynamicPanel(r: DwTestResult): HTMLElement | null {
   const dy = r.dynamic;
   if (!dy) return null;
   const hText = dy.durbinH.h === null
-    ? `Durbin's h is undefined here: ${dy.durbinH.reason}`
+    ? durbinHText(dy.durbinH)
     : `Durbin's h = ${formatStatistic(dy.durbinH.h, 3)}, p = ${formatProbability(dy.durbinH.pValue ?? NaN, { alpha: r.alpha })} (asymptotic).`;
   const bg = dy.breuschGodfrey;
   return h('section', { class: 'panel warning', id: 'dynamic-panel' },

@@ -6,6 +6,7 @@ import type { Alternative } from '../../core/alternative.js';
 import { choiceOption, integerOption, methodOption, numberOption } from '../args.js';
 import type { Command } from './command.js';
 import { TEXT_JSON_FORMAT } from '../shared.js';
+import { boundsResolutionWords } from '../../report/wording.js';
 
 export const boundsCommand: Command = {
   name: 'bounds',
@@ -59,7 +60,7 @@ export const boundsCommand: Command = {
         dL: b.dL, dU: b.dU,
         test: 'one-sided, against positive autocorrelation: reject when d < dL, do not reject when d > dU',
         negative: { lower: 4 - b.dU, upper: 4 - b.dL },
-        ...(zone ? { d, alternative, zone } : {}),
+        ...(zone ? { d, alternative, zone: { ...zone, resolution: boundsResolutionWords(zone) } } : {}),
       }, null, 2) + '\n');
       return 0;
     }
@@ -74,7 +75,7 @@ export const boundsCommand: Command = {
     if (zone) {
       lines.push('', `zone of d = ${d}: ${zone.zone}`);
       if (alternative === 'two-sided') lines.push(`  (two-sided at ${alpha}: the bounds at ${zone.level} in each tail are d_L = ${f(zone.dL)}, d_U = ${f(zone.dU)})`);
-      lines.push(`  ${zone.resolution}`);
+      lines.push(`  ${boundsResolutionWords(zone)}`);
     }
     io.out(lines.join('\n') + '\n');
     return 0;

@@ -1,6 +1,6 @@
 /**
  * `exact-dw diagnose`: the asymptotic serial-correlation checks that stay valid in dynamic models
- * (Durbin's h, Breusch-Godfrey, the residual t-test), from src/dynamic/. Thin: all numbers come
+ * (Durbin's h, Breusch-Godfrey, Durbin's alternative test), from src/dynamic/. Thin: all numbers come
  * from the library.
  */
 import { DwError } from '../../errors.js';
@@ -10,6 +10,8 @@ import { dynamicModelCheck, serialCorrelationTests, type DynamicDiagnosis, type 
 import { choiceOption, integerOption, required } from '../args.js';
 import { CSV_OPTIONS, applyTimeRule, chooseRegressors, formatP, frequencyOption, loadTable, timeColumn, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
+import { durbinHWords, warningText } from '../../report/wording.js';
+import { inline } from '../../report/format.js';
 
 function num(v: number): string {
   return Number.isFinite(v) ? v.toFixed(4) : String(v);
@@ -18,8 +20,9 @@ function num(v: number): string {
 function diagnoseText(s: SerialTests, dyn: DynamicDiagnosis | null): string {
   const lines = [`Serial-correlation checks for dynamic models (asymptotic), n = ${s.n}, k = ${s.k} columns including any intercept`];
   if (dyn) {
-    lines.push(`  ${dyn.message}`);
-    for (const note of dyn.notes) lines.push(`  note: ${note}`);
+    const [head, ...rest] = dyn.notes.map((n) => inline(warningText(n), 'text'));
+    lines.push(`  ${head}`);
+    for (const note of rest) lines.push(`  note: ${note}`);
   } else {
     lines.push('  No regressor is the dependent variable lagged one period: the exact Durbin-Watson test (exact-dw test) applies;');
     lines.push('  the checks below are asymptotic alternatives.');
@@ -27,7 +30,7 @@ function diagnoseText(s: SerialTests, dyn: DynamicDiagnosis | null): string {
   lines.push('');
   if (s.durbinH) {
     const h = s.durbinH;
-    if (h.h === null) lines.push(`  Durbin's h: undefined. ${h.reason}`);
+    if (h.h === null) lines.push(`  Durbin's h: undefined. ${inline(durbinHWords(h), 'text')}`);
     else lines.push(`  Durbin's h = ${num(h.h)}   (r1 = ${num(h.r1)}, n V = ${num(h.nV)}), p = ${formatP(h.pValue as number)} (${s.alternative}, normal)`);
   }
   const bg = s.breuschGodfrey;
@@ -85,12 +88,12 @@ export const diagnoseCommand: Command = {
         alternative,
         laggedDependent: dyn ? { name: dyn.laggedDependent, how: dyn.how } : null,
         dValid: dyn === null,
-        message: dyn ? dyn.message : null,
+        message: dyn ? inline(warningText(dyn.notes[0]), 'text') : null,
         asymptotic: true,
-        durbinH: s.durbinH,
+        durbinH: s.durbinH ? { ...s.durbinH, reason: inline(durbinHWords(s.durbinH), 'text') } : null,
         breuschGodfrey: s.breuschGodfrey,
         residualT: s.residualT,
-        notes: dyn ? dyn.notes : [],
+        notes: dyn ? dyn.notes.slice(1).map((n) => ({ ...n, text: inline(warningText(n), 'text') })) : [],
       }, null, 2) + '\n');
     } else {
       io.out(diagnoseText(s, dyn));

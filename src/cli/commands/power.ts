@@ -7,6 +7,8 @@ import type { ErrorProcess } from '../../power/weights.js';
 import { choiceOption, numberOption, required } from '../args.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, applyTimeRule, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';
 import type { Command } from './command.js';
+import { powerNoteText } from '../../report/wording.js';
+import { inline } from '../../report/format.js';
 
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 const DEFAULT_RHO = '0.1:0.9:0.1';
@@ -77,7 +79,7 @@ function powerText(p: ReturnType<typeof powerForProblem>): string {
   ];
   for (const pt of p.curve) lines.push(`  ${rhoText(pt.rho).padStart(width)}   ${pt.power.toFixed(4)}`);
   lines.push('');
-  const searched = !p.notes.some((n) => n.startsWith('The rho at which power'));
+  const searched = !p.notes.some((n) => n.code === 'TARGET_NOT_SEARCHED');
   if (!searched) {
     lines.push('  the rho reaching a target power was not searched for (--target none)');
   } else if (p.rhoAtTarget === null) {
@@ -87,8 +89,9 @@ function powerText(p: ReturnType<typeof powerForProblem>): string {
   }
   lines.push(`  absolute error of each power below ${Math.max(p.errorBound, 1e-16).toExponential(1)}`);
   for (const note of p.notes) {
-    if (note.startsWith('Route: ')) lines.push(`  route: ${note.slice('Route: '.length)}`);
-    else if (!note.startsWith('Power ') && !note.startsWith('The rho at which power')) lines.push(`  note: ${note}`);
+    const text = inline(powerNoteText(note), 'text');
+    if (note.code === 'POWER_ROUTE') lines.push(`  route: ${text.replace(/^Route: /, '')}`);
+    else if (note.code !== 'TARGET_NOT_REACHED' && note.code !== 'TARGET_NOT_SEARCHED') lines.push(`  note: ${text}`);
   }
   return lines.join('\n') + '\n';
 }
@@ -146,7 +149,7 @@ export const powerCommand: Command = {
         gaps: p.gaps,
         route: p.route,
         errorBound: p.errorBound,
-        notes: p.notes,
+        notes: p.notes.map((n) => ({ ...n, text: inline(powerNoteText(n), 'text') })),
       };
       io.out(JSON.stringify(out, null, 2) + '\n');
     } else {
