@@ -18,7 +18,8 @@ import { detectLaggedDependent } from '../dynamic/lagged-dependent.js';
 import type { Alternative } from '../core/alternative.js';
 import type { DesignReuse } from '../inference/dw-test.js';
 import type { TailProbability } from '../core/types.js';
-import { tailProbability, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
+import { AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
+import { batchTail, engineTail } from './fast-tail.js';
 import { DwError } from '../errors.js';
 import type { DwWarning } from '../inference/warnings.js';
 
@@ -94,8 +95,8 @@ export function seriesAnswer(
   // the same engine call, so the same p, one evaluation fewer
   const delta = dist.source.spectrumError;
   const tailAt = (tail: 'lower' | 'upper'): TailProbability => {
-    if (ceiling === null) return tail === 'lower' ? dist.lowerTail(d) : dist.upperTail(d);
-    const r = tailProbability(dist.source, d, tail, dist.options);
+    if (ceiling === null) return batchTail(dist, d, tail);
+    const r = engineTail(dist.source, d, tail, dist.options);
     if (!(delta > 0) || r.p === 0 || r.p === 1) return r;
     const extra = 2 * delta * ceiling;
     return { ...r, errorBound: r.errorBound + extra, relativeError: r.relativeError + extra / r.p };
