@@ -6,9 +6,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { productSpectralForm, imhofProductTail, imhofProductPair } from '../src/engines/imhof-product.js';
-import { imhofTail, spectralForm } from '../src/engines/imhof.js';
-import { seededNormal } from './helpers/reference.js';
+import { productSpectralForm, imhofProductTail, imhofProductWithDensity } from '../src/engines/imhof-product.js';
+import { imhofTail, imhofDensity, spectralForm } from '../src/engines/imhof.js';
+import { seededNormal, jStat } from './helpers/reference.js';
 
 interface RefCase { id: string; nu: number[]; points: { c: number; lower: number; upper: number }[] }
 const ref = JSON.parse(readFileSync(new URL('./ref/reference.json', import.meta.url), 'utf8')) as { cases: RefCase[] };
@@ -52,7 +52,7 @@ describe('productSpectralForm', () => {
   });
 });
 
-describe('imhofProductTail and imhofProductPair against mpmath (test/ref/reference.json)', () => {
+describe('imhofProductTail and imhofProductWithDensity against mpmath (test/ref/reference.json)', () => {
   it('every reference probability within 1e-10 and within the reported bound; the atan form agrees to 1e-14', () => {
     let checked = 0;
     for (const c of ref.cases) {
@@ -75,36 +75,50 @@ describe('imhofProductTail and imhofProductPair against mpmath (test/ref/referen
     expect(checked).toBeGreaterThan(250);
   });
 
-  it('the pair: the first tail is imhofProductTail exactly, the second (on the first one\'s nodes) within its own bound of mpmath', () => {
+  it('with the density: the tail is imhofProductTail exactly; the density within its bound of imhofDensity\'s', () => {
     let checked = 0;
     for (const c of ref.cases) {
       const nu = Float64Array.from(c.nu);
       const m = nu.length;
-      const width = nu[m - 1] - nu[0];
       for (const pt of c.points) {
         if (!(pt.c > nu[0] && pt.c < nu[m - 1])) continue;
         for (const tail of ['lower', 'upper'] as const) {
-          // the first point a little away from the reference point, towards the middle
-          const c1 = pt.c + (pt.c < 0.5 * (nu[0] + nu[m - 1]) ? 1 : -1) * 1e-3 * width;
-          if (!(c1 > nu[0] && c1 < nu[m - 1])) continue;
-          const [first, second] = imhofProductPair(nu, c1, pt.c, tail);
-          const alone = imhofProductTail(nu, c1, tail);
-          expect(first.p).toBe(alone.p);
-          expect(first.errorBound).toBe(alone.errorBound);
-          const want = tail === 'lower' ? pt.lower : pt.upper;
-          const err = Math.abs(second.p - want);
-          expect(err, `${c.id} c=${pt.c} ${tail}`).toBeLessThanOrEqual(second.errorBound);
-          expect(err, `${c.id} c=${pt.c} ${tail}`).toBeLessThan(1e-10);
+          const got = imhofProductWithDensity(nu, pt.c, tail);
+          const alone = imhofProductTail(nu, pt.c, tail);
+          expect(got.tail.p).toBe(alone.p);
+          expect(got.tail.errorBound).toBe(alone.errorBound);
+          if (got.density === null) { expect(m).toBeLessThanOrEqual(3); continue; }
+          const other = imhofDensity(nu, pt.c, { tolerance: 1e-12 });
+          expect(Math.abs(got.density - other.value), `${c.id} c=${pt.c} ${tail}`).toBeLessThanOrEqual(got.densityError + other.errorBound);
+          expect(got.densityError).toBeLessThan(1e-4);
           checked++;
         }
       }
     }
-    expect(checked).toBeGreaterThan(200);
+    expect(checked).toBeGreaterThan(300);
   });
 
-  it('the pair refuses points outside the open support', () => {
+  it('the density of d for two eigenvalues of multiplicities p and q: a scaled Beta(q/2, p/2) law (closed form; jstat)', () => {
+    // d = a + (b - a) B with B ~ Beta(q/2, p/2) when nu = (a x p, b x q): uniform for p = q = 2
+    const uniform = Float64Array.from([1, 1, 3, 3]);
+    for (const c of [1.2, 2, 2.9]) {
+      const r = imhofProductWithDensity(uniform, c, 'lower');
+      expect(Math.abs(r.density! - 0.5)).toBeLessThanOrEqual(r.densityError);
+      expect(Math.abs(r.tail.p - (c - 1) / 2)).toBeLessThanOrEqual(r.tail.errorBound);
+    }
+    const nu = Float64Array.from([0.5, 0.5, 0.5, 0.5, 2.5, 2.5, 2.5, 2.5, 2.5, 2.5]);
+    for (const c of [0.8, 1.5, 2.2]) {
+      const r = imhofProductWithDensity(nu, c, 'upper');
+      const t = (c - 0.5) / 2;
+      const want = jStat.beta.pdf(t, 3, 2) / 2; // B = chi2_6 / (chi2_4 + chi2_6) ~ Beta(3, 2)
+      expect(Math.abs(r.density! - want), `c=${c}`).toBeLessThanOrEqual(r.densityError + 1e-12);
+    }
+  });
+
+  it('the density is null where its truncation cannot be bounded (two weights), and points outside the support are refused', () => {
     const nu = Float64Array.from([0.5, 1, 2]);
-    expect(() => imhofProductPair(nu, 0.5, 1, 'lower')).toThrow(RangeError);
-    expect(() => imhofProductPair(nu, 1, 2.5, 'upper')).toThrow(RangeError);
+    expect(imhofProductWithDensity(Float64Array.of(1, 3), 2, 'lower').density).toBeNull();
+    expect(() => imhofProductWithDensity(nu, 0.5, 'lower')).toThrow(RangeError);
+    expect(() => imhofProductWithDensity(nu, 2.5, 'upper')).toThrow(RangeError);
   });
 });

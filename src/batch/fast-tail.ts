@@ -7,16 +7,22 @@
  * (n <= AUTO_SPECTRUM_MAX_N): Imhof's integral on the spectrum answers when c lies outside the
  * support or its relative error is within AUTO_RELATIVE_TARGET; otherwise (a small tail) the
  * request goes to `tailProbability` itself, which makes exactly the choice it always makes. Other
- * engines and larger n go to `tailProbability` unchanged. The bound for rounding in the spectrum is
- * the one of DwNullDistribution.lowerTail / upperTail (src/distribution/null-distribution.ts): the
- * same slope measurement, by the same engine. Hence every probability is the single test's up to
- * rounding in the integrand (about 1e-15, test/batch-fast-tail.test.ts), and every error bound is
- * built by the same rule.
+ * engines and larger n go to `tailProbability` unchanged.
+ *
+ * The allowance for rounding in the spectrum follows DwNullDistribution.lowerTail / upperTail
+ * (src/distribution/null-distribution.ts): every nu_i is known to within delta, so d and c are too,
+ * and the tail moves by at most 2 delta times the slope of the distribution function near c. The
+ * single test measures that slope by a second integral at c + h; here, for c well inside the
+ * support, the density of d at c comes from the same evaluations as the tail (with its own error
+ * bound, added to it), which saves the second integral. Near the ends of the support, and where
+ * the density cannot be bounded (two weights), the single test's rule is used as it is. Hence every
+ * probability is the single test's up to rounding in the integrand (about 1e-15), and every error
+ * bound is built from the same terms (test/batch-fast-tail.test.ts).
  */
 import type { DwNullDistribution } from '../distribution/null-distribution.js';
 import type { Tail, TailProbability } from '../core/types.js';
 import { tailProbability, AUTO_SPECTRUM_MAX_N, AUTO_RELATIVE_TARGET, type EngineOptions } from '../engines/choose.js';
-import { imhofProductTail, imhofProductPair } from '../engines/imhof-product.js';
+import { imhofProductTail, imhofProductWithDensity } from '../engines/imhof-product.js';
 import { DwError } from '../errors.js';
 
 /**
@@ -45,8 +51,9 @@ export function engineTail(source: DwNullDistribution['source'], c: number, tail
 /**
  * P(d <= c) (`lower`) or P(d >= c) (`upper`) for the null distribution `dist`, with the error
  * bound of DwNullDistribution.lowerTail / upperTail: the engine's own bound plus the effect of
- * rounding in the spectrum, 2 delta times the slope measured between c and c +- h (or, near an end
- * of the support, the tails at c -+ 2 delta taken directly).
+ * rounding in the spectrum, 2 delta times the density at c plus its error bound (or the slope
+ * measured between c and c +- h; near an end of the support, the tails at c -+ 2 delta taken
+ * directly).
  *
  * @example
  * ```ts
@@ -60,17 +67,21 @@ export function batchTail(dist: DwNullDistribution, c: number, tail: Tail): Tail
   const delta = source.spectrumError;
   const usesSpectrum = (options.method ?? 'auto') === 'auto' && !(source.operator && (source.basis?.n ?? 0) > AUTO_SPECTRUM_MAX_N);
   if (usesSpectrum && delta > 0) {
-    // the usual case: c well inside the support; the tail at c and the one at c -+ h for the slope
-    // below, on the same nodes in one pass (src/engines/imhof-product.ts)
+    // the usual case, c well inside the support: the tail at c and the density of d there (the
+    // slope below) from the same evaluations (src/engines/imhof-product.ts)
     const nu = source.spectrum();
     const [lo, hi] = [nu[0], nu[nu.length - 1]];
     const h = Math.max(1e4 * delta, 1e-9 * (hi - lo));
     if (c - lo > h && hi - c > h) {
-      const c2 = tail === 'lower' ? c + h : c - h;
-      const [at, near] = imhofProductPair(nu, c, c2, tail, { tolerance: options.tolerance });
-      if (at.relativeError <= AUTO_RELATIVE_TARGET) {
-        if (at.p === 0 || at.p === 1) return { ...at, reason: 'Imhof integral on the spectrum' };
-        return withSlope({ ...at, reason: 'Imhof integral on the spectrum' }, near, delta, h);
+      const { tail: at, density, densityError } = imhofProductWithDensity(nu, c, tail, { tolerance: options.tolerance });
+      if (at.relativeError <= AUTO_RELATIVE_TARGET && density !== null) {
+        const r = { ...at, reason: 'Imhof integral on the spectrum' };
+        if (r.p === 0 || r.p === 1) return r;
+        // moving every nu_i by at most delta moves d by at most delta: the tail moves by at most
+        // 2 delta times the density near c (twice, as the slope rule below)
+        const extra = 2 * delta * (density + densityError);
+        const errorBound = r.errorBound + extra;
+        return { ...r, errorBound, relativeError: r.relativeError + extra / r.p };
       }
     }
   }

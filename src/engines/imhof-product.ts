@@ -19,7 +19,9 @@
  * theta and log rho carry absolute errors of order m eps, the same order as the sums of m rounded
  * arctangents and logarithms of {@link spectralForm}; the two forms agree to about 1e-14 in the
  * probability (test/imhof-product.test.ts), far inside the engines' error bounds. Used by the batch
- * (src/batch/fast-tail.ts), where Imhof's integral is most of the cost of a series at n ~ 50.
+ * (src/batch/fast-tail.ts), where Imhof's integral was most of the cost of a series at n ~ 50; the
+ * same pass also gives the density of d (the derivative of Imhof's form in c) for one division per
+ * weight more.
  */
 import { integrateImhof, type ImhofOptions } from './imhof.js';
 import { exactTail } from '../core/exact-tail.js';
@@ -148,82 +150,105 @@ function weightsOf(nu: Float64Array, c: number, sign: 1 | -1): Weights {
 /** One panel of the pair: per integrand the Kronrod value, |K - G| and the sum of |f| w. */
 interface PairPanel { a: number; b: number; v1: number; e1: number; s1: number; v2: number; e2: number; s2: number }
 
+/** A tail probability and the density of d at the same point, with an error bound for the density. */
+export interface TailAndDensity {
+  tail: TailProbability;
+  /** The density of d at c (the slope of either tail), or null when its truncation cannot be bounded at this cut. */
+  density: number | null;
+  /** Absolute error bound of `density` (quadrature estimate on the tail's nodes, truncation, rounding). */
+  densityError: number;
+}
+
 /**
- * Imhof's integral at two points c and c2 on the same nodes, with one pass over the weights per
- * node (two independent complex products, which the processor overlaps). The nodes, the cut at U
- * and the panel splits are those `integrateImhof` chooses for c alone (the splits follow the error
- * of the integral at c), so the first result is `imhofProductTail(nu, c, tail)` exactly; the second
- * has its own error bound on those nodes: its own truncation bound at the same U, its own |K - G|
- * sum and rounding allowance. Used where a tail and a nearby tail are both needed (the slope that
- * bounds the effect of rounding in the spectrum, src/batch/fast-tail.ts). Both points must lie
- * strictly inside (nu_1, nu_m).
+ * The tail at c by Imhof's integral (exactly `imhofProductTail(nu, c, tail)`: the same nodes,
+ * cut and bound) and, from the same evaluations, the density of d at c: the derivative of Imhof's
+ * form with respect to c (as `imhofDensity`, src/engines/imhof.ts),
+ *
+ *   f(c) = (1/pi) Integral_0^inf (1/2) [cos(theta) sum 1/(1 + x_j^2) - sin(theta) sum x_j/(1 + x_j^2)] / rho(u) du,
+ *
+ * x_j = lambda_j u, whose sums cost one division per weight beside the complex product. Its error
+ * bound: the |K15 - G7| estimates on the tail's panels, plus 50 eps times the integral of |f|
+ * (rounding), plus a truncation bound at the tail's cut U that holds at any U: the bracket is at
+ * most n in modulus and rho(u) >= prod_S (|lambda_j| u)^(1/2), S the s weights above 1e-13 of the
+ * largest, which integrates to (n/2) U^(1 - s/2) / (pi (s/2 - 1) prod_S |lambda_j|^(1/2)) for
+ * s > 2 (about n U (s/2) / (s/2 - 1) times the tail's own truncation bound). For s <= 2 the
+ * density is null. c must lie strictly inside (nu_1, nu_m).
  *
  * @example
  * ```ts
- * const nu = Float64Array.from({ length: 18 }, (_, i) => 2 - 2 * Math.cos(Math.PI * (i + 1) / 20));
- * const [at, near] = imhofProductPair(nu, 1.2, 1.2 + 1e-8, 'lower');
- * (near.p - at.p) / 1e-8; // the density of d at 1.2, to about 1e-3
+ * const nu = Float64Array.of(1, 3);
+ * imhofProductWithDensity(nu, 2, 'lower').density; // 1 / pi: the arcsine density 1 / (pi sqrt((c - 1)(3 - c)))
  * ```
  */
-export function imhofProductPair(nu: Float64Array, c: number, c2: number, tail: Tail, options: ImhofOptions = {}): [TailProbability, TailProbability] {
+export function imhofProductWithDensity(nu: Float64Array, c: number, tail: Tail, options: ImhofOptions = {}): TailAndDensity {
   const n = nu.length;
-  if (!(c > nu[0] && c < nu[n - 1] && c2 > nu[0] && c2 < nu[n - 1])) {
-    throw new RangeError('imhofProductPair: both points must lie strictly inside the support');
-  }
+  if (!(c > nu[0] && c < nu[n - 1])) throw new RangeError('imhofProductWithDensity: c must lie strictly inside the support');
   const tol = options.tolerance ?? 1e-11;
-  const sign = tail === 'lower' ? 1 : -1;
-  const w1 = weightsOf(nu, c, sign);
-  const w2 = weightsOf(nu, c2, sign);
-  // the cut of integrateImhof for c: T(U) = tol / 4
-  const m = w1.m;
-  const logU = (2 / m) * (-Math.log((Math.PI * m * tol) / 8) - 0.5 * w1.sumLog);
+  const w = weightsOf(nu, c, tail === 'lower' ? 1 : -1);
+  const m = w.m;
+  const logU = (2 / m) * (-Math.log((Math.PI * m * tol) / 8) - 0.5 * w.sumLog);
   const upper = Math.exp(logU);
-  const truncation1 = 1 / (Math.PI * (m / 2) * Math.exp((m / 2) * logU + 0.5 * w1.sumLog));
-  // the same bound for the weights at c2, at the same U (it holds at any U > 0)
-  const truncation2 = 1 / (Math.PI * (w2.m / 2) * Math.exp((w2.m / 2) * logU + 0.5 * w2.sumLog));
-  const l1 = w1.lambda;
-  const l2 = w2.lambda;
-  const half1 = 0.5 * w1.sumLambda;
-  const half2 = 0.5 * w2.sumLambda;
+  const truncation = 1 / (Math.PI * (m / 2) * Math.exp((m / 2) * logU + 0.5 * w.sumLog));
+  const l = w.lambda;
+  const half = 0.5 * w.sumLambda;
   let g1 = 0;
   let g2 = 0;
   const at = (u: number): void => {
-    if (u === 0) { g1 = half1; g2 = half2; return; }
-    let re = 1, im = 0, turns = 0, scale = 0;
-    let re2 = 1, im2 = 0, turns2 = 0, scale2 = 0;
+    if (u === 0) { g1 = half; g2 = 0.5 * n; return; }
+    let re = 1, im = 0, turns = 0, scale = 0, a = 0, b = 0;
     for (let j = 0; j < n; j++) {
-      const x = l1[j] * u;
-      const y = l2[j] * u;
+      const x = l[j] * u;
       const nr = re - im * x;
       const ni = im + re * x;
-      const nr2 = re2 - im2 * y;
-      const ni2 = im2 + re2 * y;
       if (nr < 0 && (ni < 0) !== (im < 0)) turns += im < 0 ? -1 : 1;
-      if (nr2 < 0 && (ni2 < 0) !== (im2 < 0)) turns2 += im2 < 0 ? -1 : 1;
-      re = nr; im = ni; re2 = nr2; im2 = ni2;
+      re = nr;
+      im = ni;
       if (Math.abs(re) > BIG || Math.abs(im) > BIG) { re *= SMALL; im *= SMALL; scale++; }
-      if (Math.abs(re2) > BIG || Math.abs(im2) > BIG) { re2 *= SMALL; im2 *= SMALL; scale2++; }
+      const q = 1 / (1 + x * x);
+      a += q;
+      b += x * q;
     }
     // exactly the arithmetic of productSpectralForm + integrateImhof's integrand
     const theta = 0.5 * (Math.atan2(im === 0 ? 0 : im, re) + 2 * Math.PI * turns);
     const logRho = 0.25 * Math.log(re * re + im * im) + 0.5 * scale * LOG_BIG;
-    g1 = Math.sin(theta) / (u * Math.exp(logRho));
-    const theta2 = 0.5 * (Math.atan2(im2 === 0 ? 0 : im2, re2) + 2 * Math.PI * turns2);
-    const logRho2 = 0.25 * Math.log(re2 * re2 + im2 * im2) + 0.5 * scale2 * LOG_BIG;
-    g2 = Math.sin(theta2) / (u * Math.exp(logRho2));
+    const rho = Math.exp(logRho);
+    g1 = Math.sin(theta) / (u * rho);
+    g2 = (0.5 * (Math.cos(theta) * a - Math.sin(theta) * b)) / rho;
   };
+  const panels = adaptivePair(at, () => g1, () => g2, upper, w.maxAbs, Math.PI * tol * 0.5, options.maxPanels ?? 4000);
+  const p = Math.min(1, Math.max(0, 0.5 - panels[0] / Math.PI));
+  const errorBound = truncation + (panels[1] + 50 * Number.EPSILON * panels[2]) / Math.PI + 4 * Number.EPSILON;
+  const result: TailProbability = { p, errorBound, relativeError: p > 0 ? errorBound / p : Infinity, method: 'imhof' };
+  // truncation of the density integral at U: |cos(theta) a - sin(theta) b| <= |sum 1/(1 + i x_j)|
+  // <= n and rho(u) >= prod_S (|lambda_j| u)^(1/2) (S: the weights above 1e-13 of the largest), so
+  // the integrand is at most (n/2) u^(-s/2) prod_S |lambda_j|^(-1/2), whose integral over [U, inf)
+  // is (n/2) U^(1 - s/2) / ((s/2 - 1) prod_S |lambda_j|^(1/2)) for s > 2; for s <= 2 no bound
+  if (m <= 2) return { tail: result, density: null, densityError: Infinity };
+  const tb = (0.5 * n * Math.exp((1 - m / 2) * logU - 0.5 * w.sumLog)) / (m / 2 - 1);
+  const densityError = tb / Math.PI + (panels[4] + 50 * Number.EPSILON * panels[5]) / Math.PI;
+  return { tail: result, density: Math.max(0, panels[3] / Math.PI), densityError };
+}
+
+/**
+ * The adaptive Gauss-Kronrod loop of `adaptiveIntegrate` (src/core/quadrature.ts) on the geometric
+ * breaks of `integrateImhof`, for two integrands evaluated together by `at` (read back by `first`
+ * and `second`), split by the error of the first. Returns the sums [value, |K - G|, sum |f| w] of
+ * the first, then of the second.
+ */
+function adaptivePair(at: (u: number) => void, first: () => number, second: () => number, upper: number, maxAbs: number, target: number, maxPanels: number): number[] {
   const panel = (a: number, b: number): PairPanel => {
     const half = 0.5 * (b - a);
     const mid = 0.5 * (a + b);
     at(mid);
+    let g1 = first(), g2 = second();
     let k1 = WGK[7] * g1, q1 = WG[3] * g1, s1 = WGK[7] * Math.abs(g1);
     let k2 = WGK[7] * g2, q2 = WG[3] * g2, s2 = WGK[7] * Math.abs(g2);
     for (let j = 0; j < 7; j++) {
       const dx = half * XGK[j];
       at(mid - dx);
-      const f1 = g1, h1 = g2;
+      const f1 = first(), h1 = second();
       at(mid + dx);
-      const f2 = g1, h2 = g2;
+      const f2 = first(), h2 = second();
       k1 += WGK[j] * (f1 + f2);
       s1 += WGK[j] * (Math.abs(f1) + Math.abs(f2));
       k2 += WGK[j] * (h1 + h2);
@@ -235,14 +260,11 @@ export function imhofProductPair(nu: Float64Array, c: number, c2: number, tail: 
       v2: k2 * half, e2: Math.abs((k2 - q2) * half), s2: s2 * Math.abs(half),
     };
   };
-  // the breaks and the adaptive loop of integrateImhof / adaptiveIntegrate, split by the error at c
   const breaks = [0];
-  for (let b = 0.25 / w1.maxAbs; b < upper; b *= 2) breaks.push(b);
+  for (let b = 0.25 / maxAbs; b < upper; b *= 2) breaks.push(b);
   breaks.push(upper);
   const panels: PairPanel[] = [];
   for (let i = 0; i + 1 < breaks.length; i++) if (breaks[i + 1] > breaks[i]) panels.push(panel(breaks[i], breaks[i + 1]));
-  const target = Math.PI * tol * 0.5;
-  const maxPanels = options.maxPanels ?? 4000;
   let used = panels.length;
   const sums = (): number[] => {
     let v1 = 0, e1 = 0, s1 = 0, v2 = 0, e2 = 0, s2 = 0;
@@ -261,10 +283,5 @@ export function imhofProductPair(nu: Float64Array, c: number, c2: number, tail: 
     used += 1;
     t = sums();
   }
-  const finish = (value: number, error: number, abs: number, truncation: number): TailProbability => {
-    const p = Math.min(1, Math.max(0, 0.5 - value / Math.PI));
-    const errorBound = truncation + (error + 50 * Number.EPSILON * abs) / Math.PI + 4 * Number.EPSILON;
-    return { p, errorBound, relativeError: p > 0 ? errorBound / p : Infinity, method: 'imhof' };
-  };
-  return [finish(t[0], t[1], t[2], truncation1), finish(t[3], t[4], t[5], truncation2)];
+  return t;
 }
