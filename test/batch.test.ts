@@ -75,7 +75,9 @@ describe('exactDwBatch', () => {
       const s = single(Array.from(rows[g]));
       const got = batch.groups[g];
       expect(got.d).toBe(s.d);
-      expect(got.pValue).toBe(s.pValue);
+      // the same integral on the same nodes, its integrand evaluated as one complex product
+      // (src/batch/fast-tail.ts): equal up to rounding, far inside either error bound
+      expect(Math.abs(got.pValue! - s.pValue)).toBeLessThan(1e-14);
       expect(got.decision).toBe(s.decision);
       expect(got.critical).toBeNull();
       expect(got.errorBound!).toBeGreaterThan(0);
@@ -197,7 +199,7 @@ describe('exactDwBatch', () => {
       b.groups.forEach((g, i) => {
         const r = Array.from(rows[i]);
         const s = exactDwTest({ y: r.map((j) => +tab.rows[j][2]), x: { z: r.map((j) => +tab.rows[j][3]) }, times: r.map((j) => +tab.rows[j][1]), alternative });
-        expect(g.pValue).toBe(s.pValue);
+        expect(Math.abs(g.pValue! - s.pValue)).toBeLessThan(1e-14); // up to rounding in the integrand, as above
         expect(g.d).toBe(s.d);
         // the bound of the tested tail, with the rounding allowances from a density ceiling: of the same small size
         expect(g.errorBound!).toBeGreaterThan(0);

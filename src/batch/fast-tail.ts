@@ -1,0 +1,112 @@
+/**
+ * The tail probabilities of a batch series: the `auto` engine's answer with Imhof's integral on the
+ * spectrum evaluated as one complex product per point (src/engines/imhof-product.ts) instead of m
+ * arctangents and logarithms, which is most of the cost of a series with its own design at n ~ 50.
+ *
+ * The rule is the `auto` rule of src/engines/choose.ts for designs whose spectrum it uses
+ * (n <= AUTO_SPECTRUM_MAX_N): Imhof's integral on the spectrum answers when c lies outside the
+ * support or its relative error is within AUTO_RELATIVE_TARGET; otherwise (a small tail) the
+ * request goes to `tailProbability` itself, which makes exactly the choice it always makes. Other
+ * engines and larger n go to `tailProbability` unchanged.
+ *
+ * The allowance for rounding in the spectrum follows DwNullDistribution.lowerTail / upperTail
+ * (src/distribution/null-distribution.ts): every nu_i is known to within delta, so d and c are too,
+ * and the tail moves by at most 2 delta times the slope of the distribution function near c. The
+ * single test measures that slope by a second integral at c + h; here, for c well inside the
+ * support, the density of d at c comes from the same evaluations as the tail (with its own error
+ * bound, added to it), which saves the second integral. Near the ends of the support, and where
+ * the density cannot be bounded (two weights), the single test's rule is used as it is. Hence every
+ * probability is the single test's up to rounding in the integrand (about 1e-15), and every error
+ * bound is built from the same terms (test/batch-fast-tail.test.ts).
+ */
+import type { DwNullDistribution } from '../distribution/null-distribution.js';
+import type { Tail, TailProbability } from '../core/types.js';
+import { tailProbability, AUTO_SPECTRUM_MAX_N, AUTO_RELATIVE_TARGET, type EngineOptions } from '../engines/choose.js';
+import { imhofProductTail, imhofProductWithDensity } from '../engines/imhof-product.js';
+import { DwError } from '../errors.js';
+
+/**
+ * P(d <= c) or P(d >= c) by the engine `options.method` chooses (`auto`: see the file comment),
+ * without the allowance for rounding in the spectrum.
+ *
+ * @example
+ * ```ts
+ * const { distribution } = prepareProblem({ t: [1, 2, 3, 4, 5, 6, 7, 8] }, 8);
+ * engineTail(distribution.source, 1.1, 'lower', {}); // as tailProbability(..., { method: 'auto' }), to ~1e-15
+ * ```
+ */
+export function engineTail(source: DwNullDistribution['source'], c: number, tail: Tail, options: EngineOptions): TailProbability {
+  const method = options.method ?? 'auto';
+  const n = source.basis?.n ?? 0;
+  if (method !== 'auto' || (source.operator && n > AUTO_SPECTRUM_MAX_N)) return tailProbability(source, c, tail, options);
+  const nu = source.spectrum();
+  const im = imhofProductTail(nu, c, tail, { tolerance: options.tolerance });
+  if (c <= nu[0] || c >= nu[nu.length - 1] || im.relativeError <= AUTO_RELATIVE_TARGET) {
+    return { ...im, reason: 'Imhof integral on the spectrum' };
+  }
+  // a small tail: the tail engines decide, exactly as for a single test
+  return tailProbability(source, c, tail, options);
+}
+
+/**
+ * P(d <= c) (`lower`) or P(d >= c) (`upper`) for the null distribution `dist`, with the error
+ * bound of DwNullDistribution.lowerTail / upperTail: the engine's own bound plus the effect of
+ * rounding in the spectrum, 2 delta times the density at c plus its error bound (or the slope
+ * measured between c and c +- h; near an end of the support, the tails at c -+ 2 delta taken
+ * directly).
+ *
+ * @example
+ * ```ts
+ * const { distribution } = prepareProblem({ t: [1, 2, 3, 4, 5, 6, 7, 8] }, 8);
+ * batchTail(distribution, 1.1, 'lower'); // distribution.lowerTail(1.1), to ~1e-15
+ * ```
+ */
+export function batchTail(dist: DwNullDistribution, c: number, tail: Tail): TailProbability {
+  if (!Number.isFinite(c)) throw new DwError('D_OUT_OF_RANGE', `The point ${c} is not a finite number.`, 'Give a finite value of d.');
+  const { source, options } = dist;
+  const delta = source.spectrumError;
+  const usesSpectrum = (options.method ?? 'auto') === 'auto' && !(source.operator && (source.basis?.n ?? 0) > AUTO_SPECTRUM_MAX_N);
+  if (usesSpectrum && delta > 0) {
+    // the usual case, c well inside the support: the tail at c and the density of d there (the
+    // slope below) from the same evaluations (src/engines/imhof-product.ts)
+    const nu = source.spectrum();
+    const [lo, hi] = [nu[0], nu[nu.length - 1]];
+    const h = Math.max(1e4 * delta, 1e-9 * (hi - lo));
+    if (c - lo > h && hi - c > h) {
+      const { tail: at, density, densityError } = imhofProductWithDensity(nu, c, tail, { tolerance: options.tolerance });
+      if (at.relativeError <= AUTO_RELATIVE_TARGET && density !== null) {
+        const r = { ...at, reason: 'Imhof integral on the spectrum' };
+        if (r.p === 0 || r.p === 1) return r;
+        // moving every nu_i by at most delta moves d by at most delta: the tail moves by at most
+        // 2 delta times the density near c (twice, as the slope rule below)
+        const extra = 2 * delta * (density + densityError);
+        const errorBound = r.errorBound + extra;
+        return { ...r, errorBound, relativeError: r.relativeError + extra / r.p };
+      }
+    }
+  }
+  const r = engineTail(source, c, tail, options);
+  if (!(delta > 0)) return r;
+  const [lo, hi] = dist.support;
+  const h = Math.max(1e4 * delta, 1e-9 * (hi - lo));
+  if (c - lo <= h || hi - c <= h) {
+    let extra = 0;
+    for (const c2 of [c - 2 * delta, c + 2 * delta]) {
+      const r2 = engineTail(source, c2, tail, options);
+      extra = Math.max(extra, Math.abs(r2.p - r.p) + r2.errorBound);
+    }
+    const errorBound = r.errorBound + extra;
+    return { ...r, errorBound, relativeError: r.p > 0 ? errorBound / r.p : Infinity };
+  }
+  if (r.p === 0 || r.p === 1) return r;
+  const c2 = tail === 'lower' ? c + h : c - h;
+  return withSlope(r, engineTail(source, c2, tail, options), delta, h);
+}
+
+/** r with the allowance 2 delta x slope, the slope measured from r and r2 = the tail h further in. */
+function withSlope(r: TailProbability, r2: TailProbability, delta: number, h: number): TailProbability {
+  const slope = (Math.abs(r2.p - r.p) + r.errorBound + r2.errorBound) / h;
+  const extra = 2 * delta * slope;
+  const errorBound = r.errorBound + extra;
+  return { ...r, errorBound, relativeError: r.relativeError + extra / r.p };
+}
