@@ -42,7 +42,7 @@ export function engineTail(source: DwNullDistribution['source'], c: number, tail
   const nu = source.spectrum();
   const im = imhofProductTail(nu, c, tail, { tolerance: options.tolerance });
   if (c <= nu[0] || c >= nu[nu.length - 1] || im.relativeError <= AUTO_RELATIVE_TARGET) {
-    return { ...im, reason: 'Imhof integral on the spectrum' };
+    return { ...im, reason: { code: 'IMHOF_SPECTRUM' } as const };
   }
   // a small tail: the tail engines decide, exactly as for a single test
   return tailProbability(source, c, tail, options);
@@ -75,7 +75,7 @@ export function batchTail(dist: DwNullDistribution, c: number, tail: Tail): Tail
     if (c - lo > h && hi - c > h) {
       const { tail: at, density, densityError } = imhofProductWithDensity(nu, c, tail, { tolerance: options.tolerance });
       if (at.relativeError <= AUTO_RELATIVE_TARGET && density !== null) {
-        const r = { ...at, reason: 'Imhof integral on the spectrum' };
+        const r = { ...at, reason: { code: 'IMHOF_SPECTRUM' } as const };
         if (r.p === 0 || r.p === 1) return r;
         // moving every nu_i by at most delta moves d by at most delta: the tail moves by at most
         // 2 delta times the density near c (twice, as the slope rule below)
