@@ -7,14 +7,14 @@
 export { DwError, isDwError, type DwErrorCode, type DwErrorDetail } from './errors.js';
 export type { EngineName, MethodChoice, Tail, TailProbability, BandMatrix, ColumnBasis, CharacteristicForm } from './core/types.js';
 export { differencePairs, differenceMatrix, durbinWatson, bandToDense, bandMultiply, type DifferencePairs } from './core/difference.js';
-export { householderQR, columnBasis, applyQ, applyQt, type HouseholderQR } from './core/qr.js';
+export { householderQR, columnBasis, applyQ, applyQt, type HouseholderQR } from './linalg/qr.js';
 export { denseSpectrum, spectrumMean, spectrumVariance } from './core/spectrum.js';
-export { symmetricEigenvalues, tridiagonalEigenvalues } from './core/symmetric-eigen.js';
+export { symmetricEigenvalues, tridiagonalEigenvalues } from './linalg/symmetric-eigen.js';
 export { imhofTail, imhofDensity, integrateImhof, spectralForm, type ImhofOptions } from './engines/imhof.js';
 export { tailProbability, type EngineOptions } from './engines/choose.js';
 export { DwNullDistribution, quantileTolerance, type DistributionOptions } from './distribution/null-distribution.js';
-export { spectrumSource, designSource, type NullSource } from './distribution/source.js';
-export { brentRoot } from './distribution/root.js';
+export { spectrumSource, designSource, type NullSource } from './core/source.js';
+export { brentRoot } from './numeric/root.js';
 export { buildDesign, factorDesign, INTERCEPT_NAME, type Design, type DesignOptions, type FactoredDesign, type RegressorInput } from './model/design.js';
 export { fitLeastSquares, type Coefficient, type LeastSquaresFit } from './model/ols.js';
 export { parseCsv, numericColumn, parseCell, isMissingCell, textColumn, type DataTable, type CsvOptions } from './data/csv.js';
@@ -23,7 +23,7 @@ export {
   type TimeIndex, type TimeFrequency, type TimeLabelFormat, type TimeLabelOptions, type TimeRuleColumn, type TimeIndexChoice,
 } from './data/time-index.js';
 export { resolveDataInput, type ResolvedData, type DataInputFields } from './inference/data-input.js';
-export { prepareProblem, type DwProblem, type ProblemOptions } from './inference/problem.js';
+export { prepareProblem, type DwProblem, type ProblemOptions } from './problem/problem.js';
 export {
   exactDwTest, runExactDwTest, exactDwPValue, exactDwCritical, pValuesFor, firstOrderAutocorrelation,
   type DwWarning, type DwWarningCode, type TimeColumnInfo, type DroppedRows, type TimeLabelsInput, type InputDescription, type Provenance,
@@ -44,12 +44,12 @@ export {
   dynamicModelCheck, serialCorrelationTests, durbinH, breuschGodfrey, residualT,
   type DynamicDiagnosis, type DurbinH, type BreuschGodfrey, type ResidualT,
 } from './dynamic/serial-tests.js';
-export { normalCdf, normalSf, chiSquareSf, fSf, studentTSf } from './dynamic/tails.js';
+export { normalCdf, normalSf, chiSquareSf, fSf, studentTSf } from './numeric/tails.js';
 export { contourTail } from './engines/saddle-contour.js';
 export { panTail, panApplicable, type PanOptions } from './engines/pan.js';
 export { eigenfreeForm, type EigenfreeForm } from './engines/eigenfree.js';
 export { dctTail, dctDensity, dctEigenbasis, dctForm, integrateDct, type DctEigenbasis, type DctForm, type DctOptions } from './engines/dct.js';
-export { dctPlan, type DctPlan } from './core/dct.js';
+export { dctPlan, type DctPlan } from './linalg/dct.js';
 export { fastSpectrum } from './core/fast-spectrum.js';
 export { checkSize, memoryEstimate, checkPowerSize, POWER_MAX_N, DCT_MAX_N } from './limits.js';
 export * from './bounds/index.js';

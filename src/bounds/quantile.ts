@@ -7,11 +7,11 @@
 import { DwError } from '../errors.js';
 import type { Tail, TailProbability } from '../core/types.js';
 import { exactTail } from '../core/exact-tail.js';
-import { normalUpperQuantileStart } from '../core/normal-start.js';
+import { normalUpperQuantileStart } from '../numeric/normal-start.js';
 import { integrateImhof } from '../engines/imhof.js';
 import { tailProbability } from '../engines/choose.js';
-import { spectrumSource } from '../distribution/source.js';
-import { brentRoot } from '../distribution/root.js';
+import { spectrumSource } from '../core/source.js';
+import { brentRoot } from '../numeric/root.js';
 import { cosineSpectrumForm } from './cosine-form.js';
 import { differenceEigenvalue, type BoundIndices } from './spectra.js';
 

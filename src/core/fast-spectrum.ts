@@ -33,7 +33,7 @@
  * against dense solvers). Any other band matrix falls back to the dense route (spectrum.ts).
  */
 import { DwError } from '../errors.js';
-import { householderQR } from './qr.js';
+import { householderQR } from '../linalg/qr.js';
 import { denseSpectrum } from './spectrum.js';
 import type { BandMatrix, ColumnBasis } from './types.js';
 

@@ -8,9 +8,9 @@ import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
 import { tailProbability, dctApplies, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { dctDensity } from '../engines/dct.js';
 import { imhofDensity } from '../engines/imhof.js';
-import { brentRoot } from './root.js';
-import { normalUpperQuantileStart } from '../core/normal-start.js';
-import { spectrumSource, type NullSource } from './source.js';
+import { brentRoot } from '../numeric/root.js';
+import { normalUpperQuantileStart } from '../numeric/normal-start.js';
+import { spectrumSource, type NullSource } from '../core/source.js';
 
 /** Options of a null distribution. */
 export interface DistributionOptions {

@@ -28,7 +28,7 @@ import { panApplicable, panTail } from './pan.js';
 import { eigenfreeForm } from './eigenfree.js';
 import { contourTail } from './saddle-contour.js';
 import { dctEigenbasis, dctTail } from './dct.js';
-import type { NullSource } from '../distribution/source.js';
+import type { NullSource } from '../core/source.js';
 
 /** Above this n, `auto` avoids computing a spectrum that is not already known. */
 export const AUTO_SPECTRUM_MAX_N = 1000;

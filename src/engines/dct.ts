@@ -17,7 +17,7 @@
  * sum_j Log d_j + Log det G, G = W'D^-1 W (k x k complex symmetric). Each d_j has real part 1 and
  * G has the positive definite Hermitian part W' diag(1/(1 + u^2 mu_j^2)) W, so every pivot of its
  * LDL' without pivoting has positive real part: summing principal logarithms gives the continuous
- * branch of L (as in the eigen-free engine, src/engines/complex-ldl.ts). One evaluation is
+ * branch of L (as in the eigen-free engine, src/linalg/complex-ldl.ts). One evaluation is
  * O(n k^2) of branch-free loops over a contiguous array: no factorisation, no recurrence.
  *
  * Fewer evaluations: the integrand lives on the scale sigma = (sum (nu_j - c)^2)^(-1/2), known
@@ -33,11 +33,11 @@
  */
 import { DwError } from '../errors.js';
 import { pathChains } from '../core/fast-spectrum.js';
-import { dctPlan, type DctPlan } from '../core/dct.js';
-import { adaptiveIntegrate } from '../core/quadrature.js';
-import { convexityCut, probabilityTailBound } from '../core/convexity-cut.js';
+import { dctPlan, type DctPlan } from '../linalg/dct.js';
+import { adaptiveIntegrate } from '../numeric/quadrature.js';
+import { convexityCut, probabilityTailBound } from '../numeric/convexity-cut.js';
 import { exactTail } from '../core/exact-tail.js';
-import { PivotProduct, smallLogDet } from './complex-ldl.js';
+import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis, Tail, TailProbability } from '../core/types.js';
 
 /**

@@ -24,7 +24,7 @@
  */
 import { DwError } from '../errors.js';
 import { operatorChains } from '../core/fast-spectrum.js';
-import { PivotProduct, smallLogDet } from './complex-ldl.js';
+import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis } from '../core/types.js';
 
 /**

@@ -14,9 +14,9 @@
  * |K15 - G7| estimates plus a rounding allowance. Absolute accuracy: small tail probabilities come
  * out as 1/2 minus a number near 1/2, so relative accuracy in the far tails is the Pan engine's job.
  */
-import { adaptiveIntegrate } from '../core/quadrature.js';
+import { adaptiveIntegrate } from '../numeric/quadrature.js';
 import { exactTail } from '../core/exact-tail.js';
-import { convexityCut, probabilityTailBound } from '../core/convexity-cut.js';
+import { convexityCut, probabilityTailBound } from '../numeric/convexity-cut.js';
 import type { CharacteristicForm, Tail, TailProbability } from '../core/types.js';
 
 /** Options shared by the Imhof-type engines. */
@@ -62,7 +62,7 @@ export function integrateImhof(form: CharacteristicForm, options: ImhofOptions =
   };
   // A form with a floored weight sum (the eigen-free engine) vouches for T(U) only up to
   // U <= validBelow; beyond it the cut is placed by the convexity bound instead, which holds for
-  // any weights (src/core/convexity-cut.ts)
+  // any weights (src/numeric/convexity-cut.ts)
   let cutAt = upper;
   let cutBound = truncation;
   let extra = 0;

@@ -16,7 +16,7 @@
  * accuracy however small it is. Truncation at T: |1 - 2 s lambda_j| >= 2 t |lambda_j| and
  * |s| >= t give a tail of at most T^(-m/2) / ((m/2) pi prod (2|lambda_j|)^(1/2)).
  */
-import { adaptiveIntegrate } from '../core/quadrature.js';
+import { adaptiveIntegrate } from '../numeric/quadrature.js';
 import { exactTail } from '../core/exact-tail.js';
 import type { Tail, TailProbability } from '../core/types.js';
 

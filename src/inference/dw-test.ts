@@ -10,7 +10,7 @@ import { fitLeastSquares, type Coefficient } from '../model/ols.js';
 import { designErrorAllowance, rowCount, type RegressorInput } from '../model/design.js';
 import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
 import type { BoundsZone, PowerSummary, DynamicModelCheck } from '../core/result-types.js';
-import { prepareProblem, type DwProblem, type ProblemOptions } from './problem.js';
+import { prepareProblem, type DwProblem, type ProblemOptions } from '../problem/problem.js';
 import { dynamicModelCheck } from '../dynamic/serial-tests.js';
 import { detectLaggedDependent } from '../dynamic/lagged-dependent.js';
 import { boundsZone } from '../bounds/zone.js';

@@ -7,7 +7,7 @@
  * leaves it out (a constant column the caller supplies still counts as an intercept).
  */
 import { DwError } from '../errors.js';
-import { applyQt, householderQR, type HouseholderQR } from '../core/qr.js';
+import { applyQt, householderQR, type HouseholderQR } from '../linalg/qr.js';
 
 /** Name given to the intercept column the library adds. */
 export const INTERCEPT_NAME = '(intercept)';

@@ -4,7 +4,7 @@
  * caller's columns, and their standard errors from sigma^2 (X'X)^-1.
  */
 import { DwError } from '../errors.js';
-import { applyQ, applyQt } from '../core/qr.js';
+import { applyQ, applyQt } from '../linalg/qr.js';
 import { designErrorAllowance, type FactoredDesign } from './design.js';
 
 /**

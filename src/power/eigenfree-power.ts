@@ -50,7 +50,7 @@ import { DwError } from '../errors.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis, Tail } from '../core/types.js';
 import { integrateImhof } from '../engines/imhof.js';
 import { LAMBDA_FLOOR } from '../engines/eigenfree.js';
-import { PivotProduct, smallLogDet } from '../engines/complex-ldl.js';
+import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
 import { checkRho, type ErrorProcess } from './weights.js';
 
 /**

@@ -32,15 +32,15 @@
 import { DwError } from '../errors.js';
 import type { Tail } from '../core/types.js';
 import { integrateImhof, spectralForm } from '../engines/imhof.js';
-import { brentRoot } from '../distribution/root.js';
+import { brentRoot } from '../numeric/root.js';
 import type { RegressorInput } from '../model/design.js';
-import { prepareProblem, type DwProblem, type ProblemOptions } from '../inference/problem.js';
+import { prepareProblem, type DwProblem, type ProblemOptions } from '../problem/problem.js';
 import { rowCount } from '../model/design.js';
 import type { PowerSummary } from '../core/result-types.js';
 import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
 import { checkRho, powerContext, rhoFactor, weightsAt, type ErrorProcess, type PowerContext } from './weights.js';
 import { alternativeStructure, eigenfreeAlternativeTail, type AlternativeStructure } from './eigenfree-power.js';
-import { columnBasis } from '../core/qr.js';
+import { columnBasis } from '../linalg/qr.js';
 import { checkPowerSize, POWER_MAX_N } from '../limits.js';
 
 /**
