@@ -51,6 +51,7 @@ import type { BandMatrix, CharacteristicForm, ColumnBasis, Tail } from '../core/
 import { integrateImhof } from '../engines/imhof.js';
 import { LAMBDA_FLOOR } from '../engines/eigenfree.js';
 import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
+import { BandLdl } from '../linalg/band-ldl.js';
 import { checkRho, type ErrorProcess } from './weights.js';
 
 /**
@@ -375,7 +376,7 @@ export function alternativeForm(st: AlternativeStructure, c: number, rho: number
       'Check the difference operator; it has no pairs of observations.');
   }
 
-  const sweep = p === 1 ? tridiagonalSweep(pd, po, kb[0], kb[1], q, pq, kq, n, k) : bandSweep(pd, po, kb, q, pq, kq, n, k);
+  const sweep = bandSweep(pd, po, kb, q, pq, kq, n, k);
   const res = new Float64Array(2);
   sweep(0, res);
   const f0 = res[0];
@@ -410,176 +411,54 @@ export function alternativeForm(st: AlternativeStructure, c: number, rho: number
 /** u -> log det B + log det G + log det Sigma (Re into out[0], continuous Im into out[1]). */
 type Sweep = (u: number, out: Float64Array) => void;
 
-/** The sweep for a tridiagonal B = P - iuK: O(k) memory, O(n k^2) time. */
-function tridiagonalSweep(pd: Float64Array, po: Float64Array, kd: Float64Array, ko: Float64Array,
-  q: Float64Array, pq: Float64Array, kq: Float64Array, n: number, k: number): Sweep {
-  const kk = k * k;
-  // running rows of Y = L^-1 [Q, PQ, KQ] (complex)
-  const yqR = new Float64Array(k), yqI = new Float64Array(k);
-  const ypR = new Float64Array(k), ypI = new Float64Array(k);
-  const ykR = new Float64Array(k), ykI = new Float64Array(k);
-  const zqR = new Float64Array(k), zqI = new Float64Array(k);
-  const zpR = new Float64Array(k), zpI = new Float64Array(k);
-  // G = Q'B^-1 Q (lower), H = Q'B^-1 PQ, J = (PQ)'B^-1 KQ
-  const gR = new Float64Array(kk), gI = new Float64Array(kk);
-  const hR = new Float64Array(kk), hI = new Float64Array(kk);
-  const jR = new Float64Array(kk), jI = new Float64Array(kk);
-  const finish = smallFinish(k);
-  const acc = new Float64Array(2);
-  const prod = new PivotProduct();
-  return (u, out) => {
-    gR.fill(0); gI.fill(0); hR.fill(0); hI.fill(0); jR.fill(0); jI.fill(0);
-    prod.reset();
-    let dpr = 1, dpi = 0;
-    for (let t = 0; t < n; t++) {
-      let dr = pd[t];
-      let di = -u * kd[t];
-      const o = t * k;
-      if (t > 0) {
-        const er = po[t - 1], ei = -u * ko[t - 1]; // B(t, t-1)
-        const den = dpr * dpr + dpi * dpi;
-        const lr = (er * dpr + ei * dpi) / den; // l = e / D(t-1)
-        const li = (ei * dpr - er * dpi) / den;
-        dr -= lr * er - li * ei;
-        di -= lr * ei + li * er;
-        for (let c = 0; c < k; c++) {
-          let ar = yqR[c], ai = yqI[c];
-          yqR[c] = q[o + c] - (lr * ar - li * ai);
-          yqI[c] = -(lr * ai + li * ar);
-          ar = ypR[c]; ai = ypI[c];
-          ypR[c] = pq[o + c] - (lr * ar - li * ai);
-          ypI[c] = -(lr * ai + li * ar);
-          ar = ykR[c]; ai = ykI[c];
-          ykR[c] = kq[o + c] - (lr * ar - li * ai);
-          ykI[c] = -(lr * ai + li * ar);
-        }
-      } else {
-        for (let c = 0; c < k; c++) {
-          yqR[c] = q[c]; yqI[c] = 0;
-          ypR[c] = pq[c]; ypI[c] = 0;
-          ykR[c] = kq[c]; ykI[c] = 0;
-        }
-      }
-      // z = y / d
-      const dd = dr * dr + di * di;
-      const ir = dr / dd, ii = -di / dd;
-      for (let c = 0; c < k; c++) {
-        zqR[c] = yqR[c] * ir - yqI[c] * ii;
-        zqI[c] = yqR[c] * ii + yqI[c] * ir;
-        zpR[c] = ypR[c] * ir - ypI[c] * ii;
-        zpI[c] = ypR[c] * ii + ypI[c] * ir;
-      }
-      for (let x = 0; x < k; x++) {
-        const ar = zqR[x], ai = zqI[x];
-        const br = zpR[x], bi = zpI[x];
-        const ox = x * k;
-        for (let y = 0; y <= x; y++) {
-          gR[ox + y] += ar * yqR[y] - ai * yqI[y];
-          gI[ox + y] += ar * yqI[y] + ai * yqR[y];
-        }
-        for (let y = 0; y < k; y++) {
-          hR[ox + y] += ar * ypR[y] - ai * ypI[y];
-          hI[ox + y] += ar * ypI[y] + ai * ypR[y];
-          jR[ox + y] += br * ykR[y] - bi * ykI[y];
-          jI[ox + y] += br * ykI[y] + bi * ykR[y];
-        }
-      }
-      prod.push(dr, di, true); // running product of the pivots, with a count of turns
-      dpr = dr; dpi = di;
-    }
-    finish(u, gR, gI, hR, hI, jR, jI, acc);
-    out[0] = prod.logModulus() + acc[0];
-    out[1] = prod.argument() + acc[1];
-  };
-}
-
 /**
- * The sweep for a general band B = P - iuK of half-width p (P tridiagonal, K of half-width p):
- * L (n x p), D and Y (n x 3k) stored, O(n (p^2 + p k + k^2)) time.
+ * The sweep for the band B = P - iuK (P tridiagonal, K of half-width p), through the shared band
+ * LDL' (src/linalg/band-ldl.ts) with R = [Q, PQ, KQ]: the pivots give det B, the rows y of
+ * Y = L^-1 R give G = sum y_q y_q' / D (lower), H = sum y_q y_p' / D and J = sum y_p y_k' / D.
+ * O(n k^2) time; O(k) memory when B is tridiagonal, L, D and Y (n x 3k) stored otherwise.
  */
 function bandSweep(pd: Float64Array, po: Float64Array, kb: Float64Array[],
   q: Float64Array, pq: Float64Array, kq: Float64Array, n: number, k: number): Sweep {
-  const p = kb.length - 1;
-  const kk = k * k;
+  // R = [Q, PQ, KQ] row by row (row-major n x 3k)
   const w3 = 3 * k;
-  const lR = new Float64Array(n * p), lI = new Float64Array(n * p);
-  const dR = new Float64Array(n), dI = new Float64Array(n);
-  const yR = new Float64Array(n * w3), yI = new Float64Array(n * w3);
-  const wR = new Float64Array(p), wI = new Float64Array(p);
-  const rowR = new Float64Array(w3), rowI = new Float64Array(w3);
+  const rhs = new Float64Array(n * w3);
+  for (let t = 0; t < n; t++) {
+    for (let c = 0; c < k; c++) {
+      rhs[t * w3 + c] = q[t * k + c]; rhs[t * w3 + k + c] = pq[t * k + c]; rhs[t * w3 + 2 * k + c] = kq[t * k + c];
+    }
+  }
+  const ldl = new BandLdl([pd, po], kb, rhs);
+  const kk = k * k;
   const gR = new Float64Array(kk), gI = new Float64Array(kk);
   const hR = new Float64Array(kk), hI = new Float64Array(kk);
   const jR = new Float64Array(kk), jI = new Float64Array(kk);
   const finish = smallFinish(k);
   const acc = new Float64Array(2);
   const prod = new PivotProduct();
+  const visit = (rowR: Float64Array, rowI: Float64Array, dr: number, di: number): void => {
+    const dd = dr * dr + di * di;
+    const ir = dr / dd, ii = -di / dd;
+    for (let x = 0; x < k; x++) {
+      const ar = rowR[x] * ir - rowI[x] * ii, ai = rowR[x] * ii + rowI[x] * ir; // zq = yq / d
+      const br = rowR[k + x] * ir - rowI[k + x] * ii, bi = rowR[k + x] * ii + rowI[k + x] * ir; // zp = yp / d
+      const ox = x * k;
+      for (let y = 0; y <= x; y++) {
+        gR[ox + y] += ar * rowR[y] - ai * rowI[y];
+        gI[ox + y] += ar * rowI[y] + ai * rowR[y];
+      }
+      for (let y = 0; y < k; y++) {
+        const vr = rowR[k + y], vi = rowI[k + y];
+        hR[ox + y] += ar * vr - ai * vi;
+        hI[ox + y] += ar * vi + ai * vr;
+        const sr = rowR[2 * k + y], si = rowI[2 * k + y];
+        jR[ox + y] += br * sr - bi * si;
+        jI[ox + y] += br * si + bi * sr;
+      }
+    }
+  };
   return (u, out) => {
     gR.fill(0); gI.fill(0); hR.fill(0); hI.fill(0); jR.fill(0); jI.fill(0);
-    prod.reset();
-    for (let t = 0; t < n; t++) {
-      const j0 = Math.max(0, t - p);
-      // W(t, col) = B(t, col) - sum_{s < col} W(t, s) L(col, s);  L(t, col) = W(t, col) / D(col)
-      for (let col = j0; col < t; col++) {
-        const j = t - col;
-        let wr = j === 1 ? po[col] : 0;
-        let wi = -u * kb[j][col];
-        for (let x = j0; x < col; x++) {
-          const o = col * p + (col - x - 1);
-          const xr = wR[x - j0], xi = wI[x - j0];
-          wr -= xr * lR[o] - xi * lI[o];
-          wi -= xr * lI[o] + xi * lR[o];
-        }
-        wR[col - j0] = wr; wI[col - j0] = wi;
-        const den = dR[col] * dR[col] + dI[col] * dI[col];
-        const o = t * p + (t - col - 1);
-        lR[o] = (wr * dR[col] + wi * dI[col]) / den;
-        lI[o] = (wi * dR[col] - wr * dI[col]) / den;
-      }
-      // D(t) = B(t,t) - sum W(t, col) L(t, col);  Y(t) = R(t) - sum L(t, col) Y(col)
-      let dr = pd[t], di = -u * kb[0][t];
-      const o3 = t * k;
-      for (let c = 0; c < k; c++) {
-        rowR[c] = q[o3 + c]; rowR[k + c] = pq[o3 + c]; rowR[2 * k + c] = kq[o3 + c];
-      }
-      rowI.fill(0);
-      for (let col = j0; col < t; col++) {
-        const o = t * p + (t - col - 1);
-        const lr = lR[o], li = lI[o];
-        const xr = wR[col - j0], xi = wI[col - j0];
-        dr -= xr * lr - xi * li;
-        di -= xr * li + xi * lr;
-        if (lr === 0 && li === 0) continue;
-        const yo = col * w3;
-        for (let c = 0; c < w3; c++) {
-          const ur = yR[yo + c], ui = yI[yo + c];
-          rowR[c] -= lr * ur - li * ui;
-          rowI[c] -= lr * ui + li * ur;
-        }
-      }
-      dR[t] = dr; dI[t] = di;
-      yR.set(rowR, t * w3);
-      yI.set(rowI, t * w3);
-      const dd = dr * dr + di * di;
-      const ir = dr / dd, ii = -di / dd;
-      for (let x = 0; x < k; x++) {
-        const ar = rowR[x] * ir - rowI[x] * ii, ai = rowR[x] * ii + rowI[x] * ir; // zq
-        const br = rowR[k + x] * ir - rowI[k + x] * ii, bi = rowR[k + x] * ii + rowI[k + x] * ir; // zp
-        const ox = x * k;
-        for (let y = 0; y <= x; y++) {
-          gR[ox + y] += ar * rowR[y] - ai * rowI[y];
-          gI[ox + y] += ar * rowI[y] + ai * rowR[y];
-        }
-        for (let y = 0; y < k; y++) {
-          const vr = rowR[k + y], vi = rowI[k + y];
-          hR[ox + y] += ar * vr - ai * vi;
-          hI[ox + y] += ar * vi + ai * vr;
-          const sr = rowR[2 * k + y], si = rowI[2 * k + y];
-          jR[ox + y] += br * sr - bi * si;
-          jI[ox + y] += br * si + bi * sr;
-        }
-      }
-      prod.push(dr, di, true);
-    }
+    ldl.sweep(1, 0, 0, -u, prod, true, visit); // the running product of the pivots, with a count of turns
     finish(u, gR, gI, hR, hI, jR, jI, acc);
     out[0] = prod.logModulus() + acc[0];
     out[1] = prod.argument() + acc[1];
