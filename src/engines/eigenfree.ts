@@ -27,6 +27,7 @@ import { operatorChains } from '../core/fast-spectrum.js';
 import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
 import { BandLdl } from '../linalg/band-ldl.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis } from '../core/types.js';
+import { POLICY } from '../policy.js';
 
 /**
  * Relative size of the regularisation used for {@link CharacteristicForm.sumLogAbsLambda}: the
@@ -37,7 +38,7 @@ import type { BandMatrix, CharacteristicForm, ColumnBasis } from '../core/types.
  * eigenfreeForm(a, basis, c).lambdaFloor === LAMBDA_FLOOR * eigenfreeForm(a, basis, c).maxAbsLambda; // true
  * ```
  */
-export const LAMBDA_FLOOR = 1e-9;
+export const LAMBDA_FLOOR = POLICY.tolerances.LAMBDA_FLOOR;
 
 /**
  * The eigen-free characteristic form, with the two facts its constants rest on.

@@ -24,6 +24,7 @@ import { VERSION } from '../version.js';
 import type { TimeFrequency } from '../data/time-index.js';
 import { resolveDataInput, type DroppedRows, type TimeColumnInfo, type TimeLabelsInput } from './data-input.js';
 import type { DwWarning } from './warnings.js';
+import { POLICY } from '../policy.js';
 
 export type { DwWarning, DwWarningCode } from './warnings.js';
 export type { DroppedRows, TimeColumnInfo, TimeLabelsInput } from './data-input.js';
@@ -484,7 +485,7 @@ function laggedDependentPresent(y: ArrayLike<number>, problem: DwProblem, times?
 }
 
 /** Residuals whose component in col(X) is larger than this (relative) are refused. */
-export const RESIDUAL_DRIFT_LIMIT = 1e-3;
+export const RESIDUAL_DRIFT_LIMIT = POLICY.tolerances.RESIDUAL_DRIFT_LIMIT;
 
 /**
  * Check residuals given by the caller against the design: least-squares residuals are orthogonal

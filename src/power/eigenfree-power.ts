@@ -53,6 +53,7 @@ import { LAMBDA_FLOOR } from '../engines/eigenfree.js';
 import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
 import { BandLdl } from '../linalg/band-ldl.js';
 import { checkRho, type ErrorProcess } from './weights.js';
+import { POLICY } from '../policy.js';
 
 /**
  * What stays fixed while rho and c vary: the design's basis and the operator, both in the order in
@@ -719,7 +720,7 @@ function smallFinish(k: number): (u: number, gR: Float64Array, gI: Float64Array,
  */
 export function eigenfreeAlternativeTail(st: AlternativeStructure, c: number, rho: number, tail: Tail,
   options: { tolerance?: number } = {}): { p: number; errorBound: number; via: 'imhof' | 'chernoff' } {
-  const tol = options.tolerance ?? 1e-11;
+  const tol = options.tolerance ?? POLICY.tolerances.PROBABILITY_TOLERANCE;
   const form = alternativeForm(st, c, rho, tail === 'lower' ? 1 : -1);
   const ch = chernoffTail(form, 0.1 * tol);
   if (ch !== null && ch.bound < 0.1 * tol) {
