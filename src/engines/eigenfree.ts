@@ -241,11 +241,23 @@ function sweepLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): 
   // Q row-major (the sweep reads one row of every right-hand side at a time)
   const qRows = new Float64Array(n * k);
   for (let c = 0; c < k; c++) for (let t = 0; t < n; t++) qRows[t * k + c] = q[c * n + t];
-  const identity = [new Float64Array(n).fill(1)];
-  const ldl = new BandLdl(identity, s, qRows);
+  const ldl = new BandLdl('identity', s, qRows);
   const gr = new Float64Array(k * k);
   const gi = new Float64Array(k * k);
-  const visit = (yr: Float64Array, yi: Float64Array, dr: number, di: number): void => accumulateG(yr, yi, dr, di, k, gr, gi);
+  // G += (y / d) y' on the lower triangle (complex, no conjugation)
+  const visit = (yr: Float64Array, yi: Float64Array, dr: number, di: number): void => {
+    const dd = dr * dr + di * di;
+    const ir = dr / dd, ii = -di / dd;
+    for (let a = 0; a < k; a++) {
+      const ur = yr[a] * ir - yi[a] * ii;
+      const ui = yr[a] * ii + yi[a] * ir;
+      const o = a * k;
+      for (let b = 0; b <= a; b++) {
+        gr[o + b] += ur * yr[b] - ui * yi[b];
+        gi[o + b] += ur * yi[b] + ui * yr[b];
+      }
+    }
+  };
   return (ar, ai, br, bi, wantArg, out) => {
     gr.fill(0);
     gi.fill(0);
@@ -254,19 +266,4 @@ function sweepLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): 
     out[0] = prod.logModulus() + acc[0];
     out[1] = wantArg ? prod.argument() + acc[1] : 0;
   };
-}
-
-/** G += (y / d) y' on the lower triangle (complex, no conjugation). */
-function accumulateG(yr: Float64Array, yi: Float64Array, dr: number, di: number, k: number, gr: Float64Array, gi: Float64Array): void {
-  const dd = dr * dr + di * di;
-  const ir = dr / dd, ii = -di / dd;
-  for (let a = 0; a < k; a++) {
-    const ur = yr[a] * ir - yi[a] * ii;
-    const ui = yr[a] * ii + yi[a] * ir;
-    const o = a * k;
-    for (let b = 0; b <= a; b++) {
-      gr[o + b] += ur * yr[b] - ui * yi[b];
-      gi[o + b] += ur * yi[b] + ui * yr[b];
-    }
-  }
 }

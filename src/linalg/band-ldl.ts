@@ -32,7 +32,7 @@ export type BandRowVisitor = (yR: Float64Array, yI: Float64Array, dr: number, di
  * @example
  * ```ts
  * // B = I - i u S (S tridiagonal by diagonals s0, s1), Q row-major n x k: G = Q'B^-1 Q
- * const ldl = new BandLdl([ones], [s0, s1], q);
+ * const ldl = new BandLdl('identity', [s0, s1], q);
  * const prod = new PivotProduct();
  * ldl.sweep(1, 0, 0, -u, prod, true, (yR, yI, dr, di) => { ... }); // G += y y' / D(t)
  * prod.logModulus();        // log |det B|
@@ -45,6 +45,8 @@ export class BandLdl {
   /** Number of columns of R. */
   readonly width: number;
   private readonly r0: Float64Array[];
+  /** R0 = I: its entries are not read from memory (the eigen-free engine's case). */
+  private readonly unit: boolean;
   private readonly r1: Float64Array[];
   private readonly rhs: Float64Array;
   private readonly rowR: Float64Array;
@@ -60,12 +62,15 @@ export class BandLdl {
   private readonly wI: Float64Array;
 
   /**
-   * @param r0 R0 by diagonals (r0[j][col] = R0(col + j, col); missing diagonals are zero)
+   * @param r0 R0 by diagonals (r0[j][col] = R0(col + j, col); missing diagonals are zero), or
+   *   'identity' for R0 = I
    * @param r1 R1 by diagonals, likewise; the half-width of B is the larger of the two
    * @param rhs R, row-major n x width (blocks of right-hand sides side by side in each row)
    */
-  constructor(r0: Float64Array[], r1: Float64Array[], rhs: Float64Array) {
-    const n = r0[0].length;
+  constructor(r0: Float64Array[] | 'identity', r1: Float64Array[], rhs: Float64Array) {
+    const n = r1[0].length;
+    this.unit = r0 === 'identity';
+    if (r0 === 'identity') r0 = [new Float64Array(n).fill(1)];
     const p = Math.max(r0.length, r1.length) - 1;
     const band = p > 1;
     const pad = (r: Float64Array[]): Float64Array[] => {
@@ -107,14 +112,15 @@ export class BandLdl {
   private tridiagonal(ar: number, ai: number, br: number, bi: number, prod: PivotProduct, wantArg: boolean, visit: BandRowVisitor): void {
     const { n, width: w, rowR, rowI, rhs } = this;
     const a0 = this.r0[0], a1 = this.r0[1], b0 = this.r1[0], b1 = this.r1[1];
+    const unit = this.unit;
     // the previous row of Y stays in rowR/rowI and is overwritten in place: y_t = r_t - l y_{t-1}
     let dpr = 1, dpi = 0;
     for (let t = 0; t < n; t++) {
-      const x0 = a0[t], s0 = b0[t];
+      const x0 = unit ? 1 : a0[t], s0 = b0[t];
       let dr = ar * x0 + br * s0;
       let di = ai * x0 + bi * s0;
       if (t > 0) {
-        const x1 = a1[t - 1], s1 = b1[t - 1];
+        const x1 = unit ? 0 : a1[t - 1], s1 = b1[t - 1];
         const er = ar * x1 + br * s1, ei = ai * x1 + bi * s1; // B(t, t-1)
         const den = dpr * dpr + dpi * dpi;
         const lr = (er * dpr + ei * dpi) / den; // l = e / D(t-1)
