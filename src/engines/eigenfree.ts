@@ -242,26 +242,9 @@ function sweepLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): 
   const qRows = new Float64Array(n * k);
   for (let c = 0; c < k; c++) for (let t = 0; t < n; t++) qRows[t * k + c] = q[c * n + t];
   const ldl = new BandLdl('identity', s, qRows);
-  const gr = new Float64Array(k * k);
-  const gi = new Float64Array(k * k);
-  // G += (y / d) y' on the lower triangle (complex, no conjugation)
-  const visit = (yr: Float64Array, yi: Float64Array, dr: number, di: number): void => {
-    const dd = dr * dr + di * di;
-    const ir = dr / dd, ii = -di / dd;
-    for (let a = 0; a < k; a++) {
-      const ur = yr[a] * ir - yi[a] * ii;
-      const ui = yr[a] * ii + yi[a] * ir;
-      const o = a * k;
-      for (let b = 0; b <= a; b++) {
-        gr[o + b] += ur * yr[b] - ui * yi[b];
-        gi[o + b] += ur * yi[b] + ui * yr[b];
-      }
-    }
-  };
+  const gr = ldl.gR, gi = ldl.gI; // G = Q'B^-1 Q, accumulated by the sweep itself
   return (ar, ai, br, bi, wantArg, out) => {
-    gr.fill(0);
-    gi.fill(0);
-    ldl.sweep(ar, ai, br, bi, prod, wantArg, visit);
+    ldl.sweep(ar, ai, br, bi, prod, wantArg);
     small(gr, gi, acc);
     out[0] = prod.logModulus() + acc[0];
     out[1] = wantArg ? prod.argument() + acc[1] : 0;
