@@ -6,7 +6,7 @@
  */
 import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import type { Tail, TailProbability } from '../src/core/types.js';
 

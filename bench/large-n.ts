@@ -15,7 +15,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { tailProbability } from '../src/engines/choose.js';
 import { exactDwTest } from '../src/inference/dw-test.js';
 import { seededNormal } from '../test/helpers/reference.js';

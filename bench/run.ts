@@ -16,7 +16,7 @@ import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { Matrix, EigenvalueDecomposition } from 'ml-matrix';
 import { differenceMatrix, differencePairs, bandToDense } from '../src/core/difference.js';
-import { columnBasis } from '../src/core/qr.js';
+import { columnBasis } from '../src/linalg/qr.js';
 import { denseSpectrum } from '../src/core/spectrum.js';
 import { fastSpectrum, FAST_SPECTRUM_MAX_N } from '../src/core/fast-spectrum.js';
 import { imhofTail, integrateImhof } from '../src/engines/imhof.js';
@@ -26,7 +26,7 @@ import { dctTail } from '../src/engines/dct.js';
 import { buildDesign, factorDesign } from '../src/model/design.js';
 import { exactDwTest } from '../src/inference/dw-test.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
-import { designSource } from '../src/distribution/source.js';
+import { designSource } from '../src/core/source.js';
 import { seededNormal } from '../test/helpers/reference.js';
 
 const argv = process.argv.slice(2);

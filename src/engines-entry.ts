@@ -27,12 +27,12 @@ export type { BandMatrix, ColumnBasis, CharacteristicForm, EngineName, MethodCho
 
 // the operator A and the design's basis
 export { differencePairs, differenceMatrix, durbinWatson, type DifferencePairs } from './core/difference.js';
-export { householderQR, columnBasis, type HouseholderQR } from './core/qr.js';
+export { householderQR, columnBasis, type HouseholderQR } from './linalg/qr.js';
 
 // spectrum routines
 export { denseSpectrum, spectrumMean, spectrumVariance } from './core/spectrum.js';
 export { fastSpectrum, FAST_SPECTRUM_MAX_N, DENSE_SPECTRUM_MAX_N } from './core/fast-spectrum.js';
-export { symmetricEigenvalues, tridiagonalEigenvalues } from './core/symmetric-eigen.js';
+export { symmetricEigenvalues, tridiagonalEigenvalues } from './linalg/symmetric-eigen.js';
 
 // spectral engines
 export { imhofTail, imhofDensity, integrateImhof, spectralForm, type ImhofOptions, type ImhofIntegral } from './engines/imhof.js';
@@ -45,4 +45,4 @@ export { dctTail, dctDensity, dctEigenbasis, dctForm, integrateDct, type DctEige
 
 // the auto choice and the sources it works on
 export { tailProbability, AUTO_SPECTRUM_MAX_N, type EngineOptions } from './engines/choose.js';
-export { spectrumSource, designSource, type NullSource } from './distribution/source.js';
+export { spectrumSource, designSource, type NullSource } from './core/source.js';

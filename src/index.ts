@@ -18,11 +18,12 @@ export {
   type DynamicModelCheck, type DwWarning, type DwWarningCode, type TimeColumnInfo, type DroppedRows,
   type TimeLabelsInput, type InputDescription, type Provenance,
 } from './inference/dw-test.js';
-export type { ProblemOptions } from './inference/problem.js';
+export type { ProblemOptions } from './problem/problem.js';
 export type { RegressorInput } from './model/design.js';
 export type { Coefficient } from './model/ols.js';
 export type { BreuschGodfrey, DurbinH, ResidualT } from './dynamic/serial-tests.js';
 export type { PanelNote, BatchNote } from './inference/warnings.js';
+export type { DesignNote } from './problem/problem.js';
 export type { EngineName, EngineChoice, MethodChoice, Tail, TailProbability } from './core/types.js';
 export type { BoundsOutcome } from './core/result-types.js';
 export type { DurbinHStatus, DynamicNote } from './dynamic/serial-tests.js';
@@ -30,7 +31,7 @@ export type { DurbinHStatus, DynamicNote } from './dynamic/serial-tests.js';
 // the null distribution of d for a design
 export { designDistribution } from './inference/design-distribution.js';
 export { DwNullDistribution, quantileTolerance, type DistributionOptions } from './distribution/null-distribution.js';
-export type { NullSource } from './distribution/source.js';
+export type { NullSource } from './core/source.js';
 
 // bounds d_L, d_U, tables and the zone of an observed d
 export { bounds, type BoundsOptions, type DwBounds } from './bounds/bounds.js';

@@ -17,36 +17,36 @@
  *     (O(n k log n)), then O(n k^2) per evaluation; memory about 8 n (k + 1) bytes for W and the
  *     eigenvalues plus the transform's work arrays.
  *
- * The limits below were set from timings of one run on this project's development machine (a
+ * The values live in src/policy.ts (`POLICY.limits`); the names below are aliases. They were set from timings of one run on this project's development machine (a
  * shared 2-core container; see docs/errors-and-limits.md): the dense spectrum took 2.4 s at
  * n = 1000 and 23 s at n = 2000; one eigen-free probability (k = 3) took 0.26 s at n = 10^4, 8.4 s at
  * n = 10^5 and 66 s at n = 3 x 10^5. A limit is where one answer would take more than about 20 s.
  */
 import { DwError } from './errors.js';
-import { DENSE_SPECTRUM_MAX_N, FAST_SPECTRUM_MAX_N } from './core/fast-spectrum.js';
+import { POLICY } from './policy.js';
 
 /** Largest n for the dense spectrum (O(n^3) time, about 24 n^2 bytes: 96 MB at this size). */
-export { DENSE_SPECTRUM_MAX_N };
+export const DENSE_SPECTRUM_MAX_N = POLICY.limits.DENSE_SPECTRUM_MAX_N;
 /** Largest n for the structured spectrum of a difference operator (O(k n^2) time, O(n k) memory). */
-export const STRUCTURED_SPECTRUM_MAX_N = FAST_SPECTRUM_MAX_N;
+export const STRUCTURED_SPECTRUM_MAX_N = POLICY.limits.STRUCTURED_SPECTRUM_MAX_N;
 /** Largest m = n - k for Pan's formula (accuracy of its alternating sum, see src/engines/pan.ts). */
-export const PAN_MAX_M = 400;
+export const PAN_MAX_M = POLICY.limits.PAN_MAX_M;
 /** Largest n for the eigen-free engine (time: about 8 s per probability at n = 10^5, k = 3). */
-export const EIGENFREE_MAX_N = 100000;
+export const EIGENFREE_MAX_N = POLICY.limits.EIGENFREE_MAX_N;
 /**
  * Largest n for the DCT eigenbasis route (measured: one p-value at n = 10^6, k = 5 in a few
  * seconds, see docs/performance.md; memory about 8 n (k + 6) bytes).
  */
-export const DCT_MAX_N = 1000000;
+export const DCT_MAX_N = POLICY.limits.DCT_MAX_N;
 /**
  * Largest n for exact power against AR(1) errors: the eigen-free route of src/power/eigenfree-power.ts
  * takes every n up to the eigen-free engine's limit (its dense route stops at POWER_SIZE_LIMIT in
  * src/power/exact-power.ts). Measured: one probability under the alternative took about 6.5 s at
  * n = 10^5, k = 3, when it needs Imhof's integral, and about 1.5 s when Chernoff's bound settles it.
  */
-export const POWER_MAX_N = EIGENFREE_MAX_N;
+export const POWER_MAX_N = POLICY.limits.POWER_MAX_N;
 /** Largest memory any engine may plan to use for one problem (bytes): 1 GiB. */
-export const MEMORY_BUDGET_BYTES = 2 ** 30;
+export const MEMORY_BUDGET_BYTES = POLICY.limits.MEMORY_BUDGET_BYTES;
 
 /** Engines the limits speak of; `auto` means "any engine that fits". */
 export type SizedEngine = 'auto' | 'imhof' | 'pan' | 'eigenfree' | 'saddlepoint' | 'dct';

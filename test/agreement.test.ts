@@ -9,7 +9,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { differenceMatrix, differencePairs } from '../src/core/difference.js';
-import { columnBasis } from '../src/core/qr.js';
+import { columnBasis } from '../src/linalg/qr.js';
 import { fastSpectrum } from '../src/core/fast-spectrum.js';
 import { imhofTail, integrateImhof } from '../src/engines/imhof.js';
 import { panApplicable, panTail } from '../src/engines/pan.js';

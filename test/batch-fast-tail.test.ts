@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { batchTail, engineTail } from '../src/batch/fast-tail.js';
 

@@ -3,14 +3,14 @@
  * general-purpose libraries jstat, numeric and ml-matrix, and seeded simulation.
  */
 import { describe, expect, it } from 'vitest';
-import { kronrodPanel, adaptiveIntegrate } from '../src/core/quadrature.js';
-import { symmetricEigenvalues } from '../src/core/symmetric-eigen.js';
+import { kronrodPanel, adaptiveIntegrate } from '../src/numeric/quadrature.js';
+import { symmetricEigenvalues } from '../src/linalg/symmetric-eigen.js';
 import { bandToDense, differenceMatrix, differencePairs, durbinWatson } from '../src/core/difference.js';
-import { householderQR } from '../src/core/qr.js';
+import { householderQR } from '../src/linalg/qr.js';
 import { denseSpectrum, spectrumMean, spectrumVariance } from '../src/core/spectrum.js';
 import { imhofTail, imhofDensity } from '../src/engines/imhof.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
-import { brentRoot } from '../src/distribution/root.js';
+import { brentRoot } from '../src/numeric/root.js';
 import { jStat, numeric, Matrix, EigenvalueDecomposition, seededNormal, seededRandom, referenceSpectrum } from './helpers/reference.js';
 
 function randomDesign(seed: number, n: number, p: number, intercept: boolean): number[][] {

@@ -1,16 +1,16 @@
 /**
- * The DCT eigenbasis route (src/engines/dct.ts, src/core/dct.ts) against outside references:
+ * The DCT eigenbasis route (src/engines/dct.ts, src/linalg/dct.ts) against outside references:
  * the DCT-II against its defining cosine sum (closed form), the engine against Imhof's integral on
  * the structured spectrum and against the eigen-free engine, the density against the spectral
  * density formula, and the size rules that let it take n = 10^6.
  */
 import { describe, expect, it } from 'vitest';
-import { dctPlan } from '../src/core/dct.js';
+import { dctPlan } from '../src/linalg/dct.js';
 import { dctDensity, dctEigenbasis, dctTail } from '../src/engines/dct.js';
 import { imhofDensity } from '../src/engines/imhof.js';
 import { tailProbability } from '../src/engines/choose.js';
-import { prepareProblem } from '../src/inference/problem.js';
-import { designSource } from '../src/distribution/source.js';
+import { prepareProblem } from '../src/problem/problem.js';
+import { designSource } from '../src/core/source.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { checkSize } from '../src/limits.js';
 import { seededNormal } from './helpers/reference.js';

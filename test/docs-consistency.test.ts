@@ -23,6 +23,7 @@ import { CONDITION_LIMIT, CONDITION_WARNING, RANK_TOLERANCE } from '../src/model
 import { D_ROUNDING_LIMIT } from '../src/model/ols.js';
 import { SYSTEM_CHROMIUM } from './helpers/browser.js';
 import { THREAD_MIN_ROWS } from '../src/cli/batch-pool.js';
+import { POLICY } from '../src/policy.js';
 import { cli, scratch } from './helpers/cli.js';
 import { writeFileSync } from 'node:fs';
 
@@ -37,6 +38,8 @@ const CONSTANTS: Record<string, number> = {
   DENSE_SPECTRUM_MAX_N, STRUCTURED_SPECTRUM_MAX_N, FAST_SPECTRUM_MAX_N, PAN_MAX_M, EIGENFREE_MAX_N, DCT_MAX_N, POWER_MAX_N,
   MEMORY_BUDGET_BYTES, AUTO_SPECTRUM_MAX_N, POWER_SIZE_LIMIT, POWER_DENSE_MAX_N, MAX_BOUNDS_N, MAX_TABLE_CELLS, MAX_TABLE_WORK,
   CONDITION_LIMIT, CONDITION_WARNING, RANK_TOLERANCE, D_ROUNDING_LIMIT, THREAD_MIN_ROWS,
+  // and every limit and tolerance of the precision policy, by its name there
+  ...(POLICY.limits as unknown as Record<string, number>), ...(POLICY.tolerances as unknown as Record<string, number>),
 };
 
 /** A number as the documents write it: 1000000, 100_000, 10^6, 3 x 10^5, 1e7, 1e+7, 1 GiB. */
@@ -209,8 +212,8 @@ describe('size limits quoted in the documents equal the constants', () => {
     ['docs/errors-and-limits.md', /"limited to n = (\d+)"/, 'DENSE_SPECTRUM_MAX_N'],
     ['docs/errors-and-limits.md', /"m = n - k = (\d+)"/, 'PAN_MAX_M'],
     ['docs/errors-and-limits.md', /"beyond every engine", "n = (\d+)"/, 'DCT_MAX_N'],
-    ['docs/batch-performance.md', /one thread per core for files of more than (\d+) lines/, 'THREAD_MIN_ROWS'],
-    ['docs/errors-and-limits.md', /`auto` takes it only for n <= max\((\d+) \(`POWER_DENSE_MAX_N`\)/, 'POWER_DENSE_MAX_N'],
+    ['docs/batch-performance.md', /one\s+thread per core for files of more than (\d+) lines/, 'THREAD_MIN_ROWS'],
+    ['docs/errors-and-limits.md', /takes the dense route up to \| n = (\d+) \(`POWER_DENSE_MAX_N`\)/, 'POWER_DENSE_MAX_N'],
   ];
   it.each(PROSE)('%s: %s equals %s', (file, pattern, constant) => {
     const m = pattern.exec(TEXT[file]);

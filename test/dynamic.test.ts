@@ -10,7 +10,7 @@
 import { describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { chiSquareSf, fSf, incompleteBeta, incompleteGamma, logGamma, normalCdf, normalPdf, normalSf, studentTSf } from '../src/dynamic/tails.js';
+import { chiSquareSf, fSf, incompleteBeta, incompleteGamma, logGamma, normalCdf, normalPdf, normalSf, studentTSf } from '../src/numeric/tails.js';
 import { detectLaggedDependent } from '../src/dynamic/lagged-dependent.js';
 import { breuschGodfrey, durbinH, dynamicModelCheck, residualT, serialCorrelationTests } from '../src/dynamic/serial-tests.js';
 import { buildDesign, factorDesign } from '../src/model/design.js';

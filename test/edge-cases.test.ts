@@ -5,7 +5,7 @@
  * saddlepoint engines on the same spectrum), and the independence of `auto` from cached state.
  */
 import { describe, expect, it } from 'vitest';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { exactDwTest, checkResiduals } from '../src/inference/dw-test.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { DwError } from '../src/errors.js';

@@ -10,7 +10,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { tailProbability } from '../src/engines/choose.js';
 import { quantileTolerance } from '../src/distribution/null-distribution.js';
 import { isDwError } from '../src/errors.js';

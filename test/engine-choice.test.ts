@@ -1,6 +1,6 @@
 /** The `auto` rule and the eigen-free design source, against the spectral route. */
 import { describe, expect, it } from 'vitest';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { spectrumMean, spectrumVariance } from '../src/core/spectrum.js';
 import { seededNormal } from './helpers/reference.js';

@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { bandToDense, differenceMatrix, differencePairs, durbinWatson } from '../src/core/difference.js';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { exactDwPValue, exactDwCritical, exactDwTest } from '../src/inference/dw-test.js';
 import { fitLeastSquares } from '../src/model/ols.js';
 import { cli, scratch } from './helpers/cli.js';

@@ -13,8 +13,8 @@ const notesText = (notes: PowerNote[]) => notes.map((n) => inline(powerNoteText(
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { bandToDense, durbinWatson } from '../src/core/difference.js';
-import { columnBasis } from '../src/core/qr.js';
-import { prepareProblem } from '../src/inference/problem.js';
+import { columnBasis } from '../src/linalg/qr.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { alternativeTail, exactPower, powerForProblem } from '../src/power/exact-power.js';
 import { errorCovariance, powerContext, powerWeights } from '../src/power/weights.js';
 import { parseRhoList, powerCommand } from '../src/cli/commands/power.js';

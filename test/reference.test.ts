@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { contourTail } from '../src/engines/saddle-contour.js';
 import type { MethodChoice } from '../src/core/types.js';

@@ -14,7 +14,7 @@ import { DOMParser, type Element as XmlElement } from '@xmldom/xmldom';
 import { renderDensitySvg, densityCurve, plotDomain } from '../src/report/svg.js';
 import { DwNullDistribution } from '../src/distribution/null-distribution.js';
 import { exactDwTest, type DwTestResult } from '../src/inference/dw-test.js';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import { isDwError } from '../src/errors.js';
 import { jStat, seededNormal } from './helpers/reference.js';
 import { dynamicResult, staticResult } from './report-fixtures.js';

@@ -21,7 +21,7 @@ import { formatPValue } from '../src/bounds/zone.js';
 import { formatProbability as pageProbability } from '../src/web/format.js';
 import { formatP } from '../src/cli/shared.js';
 import { densityCurve, densityRange } from '../src/distribution/density-grid.js';
-import { prepareProblem } from '../src/inference/problem.js';
+import { prepareProblem } from '../src/problem/problem.js';
 import type { DwTestResult } from '../src/inference/dw-test.js';
 import { cli, scratch } from './helpers/cli.js';
 import { dynamicResult, staticResult } from './report-fixtures.js';

@@ -7,7 +7,7 @@
  */
 import { DwNullDistribution } from '../distribution/null-distribution.js';
 import { buildDesign, type RegressorInput } from '../model/design.js';
-import { prepareProblem, type DwProblem, type ProblemOptions } from '../inference/problem.js';
+import { prepareProblem, type DwProblem, type ProblemOptions } from '../problem/problem.js';
 import type { DesignReuse } from '../inference/dw-test.js';
 import { bounds as boundsOf } from '../bounds/bounds.js';
 import { densityCeiling } from './group-test.js';

@@ -7,13 +7,14 @@
 import { DwError } from '../errors.js';
 import type { Tail, TailProbability } from '../core/types.js';
 import { exactTail } from '../core/exact-tail.js';
-import { normalUpperQuantileStart } from '../core/normal-start.js';
+import { normalUpperQuantileStart } from '../numeric/normal-start.js';
 import { integrateImhof } from '../engines/imhof.js';
 import { tailProbability } from '../engines/choose.js';
-import { spectrumSource } from '../distribution/source.js';
-import { brentRoot } from '../distribution/root.js';
+import { spectrumSource } from '../core/source.js';
+import { brentRoot } from '../numeric/root.js';
 import { cosineSpectrumForm } from './cosine-form.js';
 import { differenceEigenvalue, type BoundIndices } from './spectra.js';
+import { POLICY } from '../policy.js';
 
 /** Accuracy settings of {@link boundQuantile}. */
 export interface BoundQuantileOptions {
@@ -34,7 +35,7 @@ export interface BoundQuantile {
 }
 
 /** Relative error above which a tail probability of the closed-form route is handed to the general engine. */
-const RELATIVE_TARGET = 1e-6;
+const RELATIVE_TARGET = POLICY.tolerances.BOUNDS_RELATIVE_TARGET;
 
 /**
  * P(d_bound <= c) (`lower`) or P(d_bound >= c) (`upper`, computed directly) for the bounding statistic
@@ -48,7 +49,7 @@ const RELATIVE_TARGET = 1e-6;
  * boundTail(20, { first: 1, m: 18 }, 1.2015, 'lower').p; // about 0.05 (Savin & White 1977: d_L = 1.201)
  * ```
  */
-export function boundTail(n: number, idx: BoundIndices, c: number, tail: Tail = 'lower', tolerance = 1e-10): TailProbability {
+export function boundTail(n: number, idx: BoundIndices, c: number, tail: Tail = 'lower', tolerance = POLICY.tolerances.BOUNDS_PROBABILITY_TOLERANCE): TailProbability {
   const lo = differenceEigenvalue(n, idx.first);
   const hi = differenceEigenvalue(n, idx.first + idx.m - 1);
   const below = tail === 'lower';
@@ -77,8 +78,8 @@ export function boundTail(n: number, idx: BoundIndices, c: number, tail: Tail = 
 export function boundQuantile(n: number, idx: BoundIndices, alpha: number, options: BoundQuantileOptions = {}): BoundQuantile {
   const level = Math.min(alpha, 1 - alpha);
   const tail: Tail = alpha <= 0.5 ? 'lower' : 'upper';
-  const tolerance = options.tolerance ?? Math.min(1e-10, 1e-7 * level);
-  const xtol = options.xtol ?? 1e-9;
+  const tolerance = options.tolerance ?? Math.min(POLICY.tolerances.BOUNDS_PROBABILITY_TOLERANCE, 1e-7 * level);
+  const xtol = options.xtol ?? POLICY.tolerances.BOUNDS_QUANTILE_TOLERANCE;
   const lo = differenceEigenvalue(n, idx.first);
   const hi = differenceEigenvalue(n, idx.first + idx.m - 1);
   const seen = new Map<number, number>();

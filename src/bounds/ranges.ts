@@ -4,9 +4,10 @@
  * fractions (`0.05,0.01`). Every mistake is reported with what is wrong and a correct example.
  */
 import { DwError, type DwErrorCode } from '../errors.js';
+import { POLICY } from '../policy.js';
 
 /** Longest list one option may expand to (a guard against typing 1-100000000 by mistake). */
-export const MAX_LIST_LENGTH = 100_000;
+export const MAX_LIST_LENGTH = POLICY.limits.MAX_LIST_LENGTH;
 
 /**
  * Parse a list of whole numbers such as `6-200`, `10,15,20-25` or `10-200:10`.

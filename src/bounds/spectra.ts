@@ -19,9 +19,10 @@
  * upper bound for k' - 1 regressors.
  */
 import { DwError } from '../errors.js';
+import { POLICY } from '../policy.js';
 
 /** Largest n accepted by the bounds functions (a limit on time, not on the mathematics). */
-export const MAX_BOUNDS_N = 5000;
+export const MAX_BOUNDS_N = POLICY.limits.MAX_BOUNDS_N;
 
 /**
  * The eigenvalue lambda_j = 4 sin^2(pi j / (2n)) of the first-difference matrix A of size n (the

@@ -10,9 +10,10 @@ import { checkAlpha } from '../core/alternative.js';
 import type { MethodChoice } from '../core/types.js';
 import { boundQuantile } from './quantile.js';
 import { MAX_BOUNDS_N, lowerBoundIndices, upperBoundIndices } from './spectra.js';
+import { POLICY } from '../policy.js';
 
 /** Most cells (n, k', alpha triples, skipped ones included) one table may have. */
-export const MAX_TABLE_CELLS = 100_000;
+export const MAX_TABLE_CELLS = POLICY.limits.MAX_TABLE_CELLS;
 
 /**
  * Most work one table may take, in units of about 10 microseconds of one core of the development
@@ -20,7 +21,7 @@ export const MAX_TABLE_CELLS = 100_000;
  * touches k' weights (or all m when that is fewer), and each integral sets up all m weights once.
  * The 6..200 x 1..20 x 2-level grid is about 0.3 million units.
  */
-export const MAX_TABLE_WORK = 3_000_000;
+export const MAX_TABLE_WORK = POLICY.limits.MAX_TABLE_WORK;
 
 /**
  * Work units of one cell (see {@link MAX_TABLE_WORK}).

@@ -11,7 +11,7 @@ import type { DwWarning } from '../inference/warnings.js';
 import { inline } from '../report/format.js';
 import { warningText } from '../report/wording.js';
 import type { InputDescription } from '../inference/dw-test.js';
-import type { ProblemOptions } from '../inference/problem.js';
+import type { ProblemOptions } from '../problem/problem.js';
 import { choiceOption, integerOption, listOption, methodOption, type OptionSpecs, type OptionValues } from './args.js';
 import type { CliIo } from './io.js';
 

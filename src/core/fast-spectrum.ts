@@ -33,9 +33,10 @@
  * against dense solvers). Any other band matrix falls back to the dense route (spectrum.ts).
  */
 import { DwError } from '../errors.js';
-import { householderQR } from './qr.js';
+import { householderQR } from '../linalg/qr.js';
 import { denseSpectrum } from './spectrum.js';
 import type { BandMatrix, ColumnBasis } from './types.js';
+import { POLICY } from '../policy.js';
 
 const EPS = Number.EPSILON / 2; // unit roundoff 2^-53
 
@@ -49,7 +50,7 @@ const EPS = Number.EPSILON / 2; // unit roundoff 2^-53
  * if (n <= FAST_SPECTRUM_MAX_N) nu = fastSpectrum(a, basis);
  * ```
  */
-export const FAST_SPECTRUM_MAX_N = 10000;
+export const FAST_SPECTRUM_MAX_N = POLICY.limits.STRUCTURED_SPECTRUM_MAX_N;
 
 /**
  * Largest n for the dense fallback taken by band matrices that are not difference operators
@@ -60,7 +61,7 @@ export const FAST_SPECTRUM_MAX_N = 10000;
  * DENSE_SPECTRUM_MAX_N; // 2000
  * ```
  */
-export const DENSE_SPECTRUM_MAX_N = 2000;
+export const DENSE_SPECTRUM_MAX_N = POLICY.limits.DENSE_SPECTRUM_MAX_N;
 
 /**
  * The m = n - k eigenvalues of Z'AZ, ascending, Z an orthonormal basis of the complement of col(Q).

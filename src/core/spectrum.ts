@@ -4,8 +4,8 @@
  * d = sum nu_i z_i^2 / sum z_i^2 with z ~ N(0, I_m) under the null (Durbin & Watson 1950).
  */
 import { bandToDense } from './difference.js';
-import { congruence, type HouseholderQR } from './qr.js';
-import { symmetricEigenvalues } from './symmetric-eigen.js';
+import { congruence, type HouseholderQR } from '../linalg/qr.js';
+import { symmetricEigenvalues } from '../linalg/symmetric-eigen.js';
 import type { BandMatrix } from './types.js';
 
 /**

@@ -65,15 +65,8 @@ export interface BandMatrix {
   bands: Float64Array[];
 }
 
-/**
- * An orthonormal basis of col(X): `q` is n x k, column-major (column j occupies
- * q[j*n .. j*n + n - 1]). Q'Q = I to working precision.
- */
-export interface ColumnBasis {
-  n: number;
-  k: number;
-  q: Float64Array;
-}
+// ColumnBasis is defined beside the QR factorisation that produces it (src/linalg/qr.ts).
+export type { ColumnBasis } from '../linalg/qr.js';
 
 /**
  * What Imhof's integral needs from a quadratic form Q = sum lambda_j z_j^2 (docs/methods.md sections 3
@@ -93,7 +86,7 @@ export interface CharacteristicForm {
   /**
    * When set, the truncation bound built from (m, sumLogAbsLambda) is only vouched for at cut
    * points U up to this value (a floored sumLogAbsLambda, as in the eigen-free engine); beyond it
-   * `integrateImhof` places the cut by the convexity bound of src/core/convexity-cut.ts instead.
+   * `integrateImhof` places the cut by the convexity bound of src/numeric/convexity-cut.ts instead.
    */
   truncationValidBelow?: number;
   /**

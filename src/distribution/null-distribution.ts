@@ -8,9 +8,10 @@ import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
 import { tailProbability, dctApplies, AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { dctDensity } from '../engines/dct.js';
 import { imhofDensity } from '../engines/imhof.js';
-import { brentRoot } from './root.js';
-import { normalUpperQuantileStart } from '../core/normal-start.js';
-import { spectrumSource, type NullSource } from './source.js';
+import { brentRoot } from '../numeric/root.js';
+import { normalUpperQuantileStart } from '../numeric/normal-start.js';
+import { spectrumSource, type NullSource } from '../core/source.js';
+import { POLICY } from '../policy.js';
 
 /** Options of a null distribution. */
 export interface DistributionOptions {
@@ -201,7 +202,7 @@ export class DwNullDistribution {
     else if (g0 > 0 || g1 < 0) {
       throw new DwError('NOT_CONVERGED', `No value of d has tail probability ${q} on the ${tail} side within [${lo}, ${hi}].`,
         'Check the level; if it is valid, please report the design.');
-    } else root = brentRoot(g, x0, x1, 1e-11 * Math.max(1, hi - lo));
+    } else root = brentRoot(g, x0, x1, POLICY.tolerances.QUANTILE_TOLERANCE * Math.max(1, hi - lo));
     // the bound at the root must resolve the level: else the engine cannot vouch for this quantile
     let at = tailProbability(this.source, root, tail, this.options);
     if (!(at.errorBound <= 1e-3 * q)) {

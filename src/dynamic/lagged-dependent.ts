@@ -3,9 +3,10 @@
  * with x_t = y_{t-1} for every observation after the first. With such a regressor d is biased
  * towards 2 and its exact null distribution does not hold (Durbin 1970, Econometrica 38, 410-421).
  */
+import { POLICY } from '../policy.js';
 
 /** Relative tolerance of the match, against the largest |y|. */
-export const LAG_MATCH_TOLERANCE = 1e-12;
+export const LAG_MATCH_TOLERANCE = POLICY.tolerances.LAG_MATCH_TOLERANCE;
 
 /**
  * The name of the first regressor equal to y lagged one period, or null.

@@ -28,7 +28,7 @@ import { buildDesign, factorDesign, type FactoredDesign, type RegressorInput } f
 import { fitLeastSquares, type LeastSquaresFit } from '../model/ols.js';
 import type { DynamicModelCheck } from '../core/result-types.js';
 import { checkAlternative, type Alternative } from '../core/alternative.js';
-import { chiSquareSf, fSf, normalSf, studentTSf } from './tails.js';
+import { chiSquareSf, fSf, normalSf, studentTSf } from '../numeric/tails.js';
 import { detectLaggedDependent } from './lagged-dependent.js';
 
 /** Whether Durbin's h is defined: `DURBIN_H_DEFINED` when n V < 1, else `DURBIN_H_UNDEFINED`. */

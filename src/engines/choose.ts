@@ -28,12 +28,13 @@ import { panApplicable, panTail } from './pan.js';
 import { eigenfreeForm } from './eigenfree.js';
 import { contourTail } from './saddle-contour.js';
 import { dctEigenbasis, dctTail } from './dct.js';
-import type { NullSource } from '../distribution/source.js';
+import type { NullSource } from '../core/source.js';
+import { POLICY } from '../policy.js';
 
 /** Above this n, `auto` avoids computing a spectrum that is not already known. */
-export const AUTO_SPECTRUM_MAX_N = 1000;
+export const AUTO_SPECTRUM_MAX_N = POLICY.limits.AUTO_SPECTRUM_MAX_N;
 /** Relative error above which `auto` hands a tail probability to Pan's engine. */
-export const AUTO_RELATIVE_TARGET = 1e-6;
+export const AUTO_RELATIVE_TARGET = POLICY.tolerances.AUTO_RELATIVE_TARGET;
 
 /** Options for a tail probability. */
 export interface EngineOptions {
@@ -94,7 +95,7 @@ export function tailProbability(source: NullSource, c: number, tail: Tail, optio
         throw new DwError('ENGINE_NOT_APPLICABLE', `Pan's engine does not apply here: ${ok.reason}.`, "Choose method 'auto' or 'imhof'.",
           { suggest: [{ option: 'method', value: 'auto' }, { option: 'method', value: 'imhof' }] });
       }
-      return panTail(nu, c, tail, tolerance === undefined ? {} : { tolerance: Math.max(tolerance, 1e-12) });
+      return panTail(nu, c, tail, tolerance === undefined ? {} : { tolerance: Math.max(tolerance, POLICY.tolerances.PAN_TOLERANCE) });
     }
     case 'eigenfree':
       return eigenfree(source, c, tail, tolerance);

@@ -17,7 +17,7 @@
  * sum_j Log d_j + Log det G, G = W'D^-1 W (k x k complex symmetric). Each d_j has real part 1 and
  * G has the positive definite Hermitian part W' diag(1/(1 + u^2 mu_j^2)) W, so every pivot of its
  * LDL' without pivoting has positive real part: summing principal logarithms gives the continuous
- * branch of L (as in the eigen-free engine, src/engines/complex-ldl.ts). One evaluation is
+ * branch of L (as in the eigen-free engine, src/linalg/complex-ldl.ts). One evaluation is
  * O(n k^2) of branch-free loops over a contiguous array: no factorisation, no recurrence.
  *
  * Fewer evaluations: the integrand lives on the scale sigma = (sum (nu_j - c)^2)^(-1/2), known
@@ -33,12 +33,13 @@
  */
 import { DwError } from '../errors.js';
 import { pathChains } from '../core/fast-spectrum.js';
-import { dctPlan, type DctPlan } from '../core/dct.js';
-import { adaptiveIntegrate } from '../core/quadrature.js';
-import { convexityCut, probabilityTailBound } from '../core/convexity-cut.js';
+import { dctPlan, type DctPlan } from '../linalg/dct.js';
+import { adaptiveIntegrate } from '../numeric/quadrature.js';
+import { convexityCut, probabilityTailBound } from '../numeric/convexity-cut.js';
 import { exactTail } from '../core/exact-tail.js';
-import { PivotProduct, smallLogDet } from './complex-ldl.js';
+import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis, Tail, TailProbability } from '../core/types.js';
+import { POLICY } from '../policy.js';
 
 /**
  * The eigenbasis of a difference operator and the regressors' coordinates in it.
@@ -235,7 +236,7 @@ function computeEigenbasis(a: BandMatrix, basis: ColumnBasis): DctEigenbasis | n
 const SERIES_MAX_ORDER = 60;
 
 /** Relative size of the floor in {@link DctForm.sumLogAbsLambda} (as in the eigen-free engine). */
-const LAMBDA_FLOOR = 1e-9;
+const LAMBDA_FLOOR = POLICY.tolerances.LAMBDA_FLOOR;
 
 /**
  * The characteristic form in the DCT eigenbasis, with what the cut of the integral needs.
@@ -572,7 +573,7 @@ function scaledBreaks(upper: number, sigma: number): number[] {
  * ```
  */
 export function integrateDct(form: DctForm, options: DctOptions = {}): { p: number; errorBound: number; evaluations: number; converged: boolean } {
-  const tol = options.tolerance ?? 1e-11;
+  const tol = options.tolerance ?? POLICY.tolerances.PROBABILITY_TOLERANCE;
   if (!(form.maxAbsLambda > 0) || form.m === 0) return { p: 1, errorBound: 0, evaluations: 0, converged: true };
   const out = new Float64Array(2);
   let evaluations = 0;
@@ -641,7 +642,7 @@ export function dctDensity(a: BandMatrix, basis: ColumnBasis, c: number, options
   const eb = requireEigenbasis(a, basis);
   const margin = 8 * Number.EPSILON * Math.max(1, eb.lambdaMax);
   if (c < eb.lambdaMin - margin || c > eb.lambdaMax + margin) return { value: 0, errorBound: 0 };
-  const tol = options.tolerance ?? 1e-10;
+  const tol = options.tolerance ?? POLICY.tolerances.DENSITY_TOLERANCE;
   const form = dctForm(eb, c, 1);
   const m = form.m;
   const out = new Float64Array(4);

@@ -24,8 +24,10 @@
  */
 import { DwError } from '../errors.js';
 import { operatorChains } from '../core/fast-spectrum.js';
-import { PivotProduct, smallLogDet } from './complex-ldl.js';
+import { PivotProduct, smallLogDet } from '../linalg/complex-ldl.js';
+import { BandLdl } from '../linalg/band-ldl.js';
 import type { BandMatrix, CharacteristicForm, ColumnBasis } from '../core/types.js';
+import { POLICY } from '../policy.js';
 
 /**
  * Relative size of the regularisation used for {@link CharacteristicForm.sumLogAbsLambda}: the
@@ -36,7 +38,7 @@ import type { BandMatrix, CharacteristicForm, ColumnBasis } from '../core/types.
  * eigenfreeForm(a, basis, c).lambdaFloor === LAMBDA_FLOOR * eigenfreeForm(a, basis, c).maxAbsLambda; // true
  * ```
  */
-export const LAMBDA_FLOOR = 1e-9;
+export const LAMBDA_FLOOR = POLICY.tolerances.LAMBDA_FLOOR;
 
 /**
  * The eigen-free characteristic form, with the two facts its constants rest on.
@@ -205,11 +207,11 @@ type LogDet = (ar: number, ai: number, br: number, bi: number, wantArg: boolean,
 
 function projectedLogDet(a: BandMatrix, s: Float64Array[], q: Float64Array, n: number, k: number): LogDet {
   const p = s.length - 1;
-  if (p <= 1) return tridiagonalLogDet(s[0], p === 1 ? s[1] : new Float64Array(Math.max(0, n - 1)), q, n, k);
+  if (p <= 1) return sweepLogDet(s, q, n, k);
   // chains (every difference operator): permute to a tridiagonal matrix; det(B) and Q'B^-1 Q are
   // invariant under a simultaneous permutation of the rows of B and of Q
   const chains = operatorChains(a);
-  if (chains === null) return bandLogDet(s, q, n, k);
+  if (chains === null) return sweepLogDet(s, q, n, k); // general band: L, D and Y stored
   const { order, link } = chains;
   const diagP = new Float64Array(n);
   const offP = new Float64Array(Math.max(0, n - 1));
@@ -225,134 +227,26 @@ function projectedLogDet(a: BandMatrix, s: Float64Array[], q: Float64Array, n: n
     const lo = Math.min(u, v);
     offP[i] = s[Math.abs(v - u)][lo];
   }
-  return tridiagonalLogDet(diagP, offP, qP, n, k);
+  return sweepLogDet([diagP, offP], qP, n, k); // tridiagonal: O(k) work memory
 }
 
-/** The LogDet for a tridiagonal S (diagonal s0, off-diagonal s1): O(k) work memory. */
-function tridiagonalLogDet(s0: Float64Array, s1: Float64Array, q: Float64Array, n: number, k: number): LogDet {
-  const gr = new Float64Array(k * k);
-  const gi = new Float64Array(k * k);
+/**
+ * The LogDet from the shared band LDL' sweep (src/linalg/band-ldl.ts) of B = alpha I + beta S:
+ * the pivots give det B, the rows of L^-1 Q give G = Q'B^-1 Q = sum_t y_t y_t' / D(t).
+ */
+function sweepLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): LogDet {
   const small = smallLogDet(k);
   const acc = new Float64Array(2);
-  const yr = new Float64Array(k);
-  const yi = new Float64Array(k);
   const prod = new PivotProduct();
+  // Q row-major (the sweep reads one row of every right-hand side at a time)
+  const qRows = new Float64Array(n * k);
+  for (let c = 0; c < k; c++) for (let t = 0; t < n; t++) qRows[t * k + c] = q[c * n + t];
+  const ldl = new BandLdl('identity', s, qRows);
+  const gr = ldl.gR, gi = ldl.gI; // G = Q'B^-1 Q, accumulated by the sweep itself
   return (ar, ai, br, bi, wantArg, out) => {
-    gr.fill(0);
-    gi.fill(0);
-    prod.reset();
-    let dpr = 1, dpi = 0;
-    for (let t = 0; t < n; t++) {
-      const st = s0[t];
-      let dr = ar + br * st;
-      let di = ai + bi * st;
-      if (t > 0) {
-        const e = s1[t - 1];
-        const er = br * e, ei = bi * e; // B(t-1, t)
-        const den = dpr * dpr + dpi * dpi;
-        const lr = (er * dpr + ei * dpi) / den; // l = e / D(t-1)
-        const li = (ei * dpr - er * dpi) / den;
-        dr -= lr * er - li * ei;
-        di -= lr * ei + li * er;
-        for (let c = 0; c < k; c++) {
-          const ur = yr[c], ui = yi[c];
-          yr[c] = q[c * n + t] - (lr * ur - li * ui);
-          yi[c] = -(lr * ui + li * ur);
-        }
-      } else {
-        for (let c = 0; c < k; c++) { yr[c] = q[c * n]; yi[c] = 0; }
-      }
-      accumulateG(yr, yi, dr, di, k, gr, gi);
-      prod.push(dr, di, wantArg);
-      dpr = dr; dpi = di;
-    }
+    ldl.sweep(ar, ai, br, bi, prod, wantArg);
     small(gr, gi, acc);
     out[0] = prod.logModulus() + acc[0];
     out[1] = wantArg ? prod.argument() + acc[1] : 0;
   };
-}
-
-/** The LogDet for a general band S: band LDL' with L (n x p), D and Y (n x k) stored. */
-function bandLogDet(s: Float64Array[], q: Float64Array, n: number, k: number): LogDet {
-  const p = s.length - 1;
-  const gr = new Float64Array(k * k);
-  const gi = new Float64Array(k * k);
-  const small = smallLogDet(k);
-  const acc = new Float64Array(2);
-  // general band: L (n x p, L(t, t-j) at t*p + j-1), D (n), Y (n x k, row-major), W (p)
-  const lR = new Float64Array(n * p);
-  const lI = new Float64Array(n * p);
-  const dR = new Float64Array(n);
-  const dI = new Float64Array(n);
-  const yR = new Float64Array(n * k);
-  const yI = new Float64Array(n * k);
-  const wR = new Float64Array(p);
-  const wI = new Float64Array(p);
-  const rowR = new Float64Array(k);
-  const rowI = new Float64Array(k);
-  const prod = new PivotProduct();
-  return (ar, ai, br, bi, wantArg, out) => {
-    gr.fill(0);
-    gi.fill(0);
-    prod.reset();
-    for (let t = 0; t < n; t++) {
-      const j0 = Math.max(0, t - p);
-      // W(t, col) = B(t, col) - sum_{s < col} W(t, s) L(col, s);  L(t, col) = W(t, col) / D(col)
-      for (let col = j0; col < t; col++) {
-        const sv = s[t - col][col];
-        let wr = br * sv, wi = bi * sv;
-        for (let x = j0; x < col; x++) {
-          const o = col * p + (col - x - 1);
-          const xr = wR[x - j0], xi = wI[x - j0];
-          wr -= xr * lR[o] - xi * lI[o];
-          wi -= xr * lI[o] + xi * lR[o];
-        }
-        wR[col - j0] = wr; wI[col - j0] = wi;
-        const den = dR[col] * dR[col] + dI[col] * dI[col];
-        const o = t * p + (t - col - 1);
-        lR[o] = (wr * dR[col] + wi * dI[col]) / den;
-        lI[o] = (wi * dR[col] - wr * dI[col]) / den;
-      }
-      // D(t) = B(t,t) - sum W(t, col) L(t, col);  Y(t) = Q(t) - sum L(t, col) Y(col)
-      const st = s[0][t];
-      let dr = ar + br * st, di = ai + bi * st;
-      for (let c = 0; c < k; c++) { rowR[c] = q[c * n + t]; rowI[c] = 0; }
-      for (let col = j0; col < t; col++) {
-        const o = t * p + (t - col - 1);
-        const lr = lR[o], li = lI[o];
-        const xr = wR[col - j0], xi = wI[col - j0];
-        dr -= xr * lr - xi * li;
-        di -= xr * li + xi * lr;
-        const yo = col * k;
-        for (let c = 0; c < k; c++) {
-          const ur = yR[yo + c], ui = yI[yo + c];
-          rowR[c] -= lr * ur - li * ui;
-          rowI[c] -= lr * ui + li * ur;
-        }
-      }
-      dR[t] = dr; dI[t] = di;
-      yR.set(rowR, t * k);
-      yI.set(rowI, t * k);
-      accumulateG(rowR, rowI, dr, di, k, gr, gi);
-      prod.push(dr, di, wantArg);
-    }
-    small(gr, gi, acc);
-    out[0] = prod.logModulus() + acc[0];
-    out[1] = wantArg ? prod.argument() + acc[1] : 0;
-  };
-}
-
-/** G += (y / d) y' on the lower triangle (complex, no conjugation). */
-function accumulateG(yr: Float64Array, yi: Float64Array, dr: number, di: number, k: number, gr: Float64Array, gi: Float64Array): void {
-  const dd = dr * dr + di * di;
-  const ir = dr / dd, ii = -di / dd;
-  for (let a = 0; a < k; a++) {
-    const ur = yr[a] * ir - yi[a] * ii;
-    const ui = yr[a] * ii + yi[a] * ir;
-    const o = a * k;
-    for (let b = 0; b <= a; b++) {
-      gr[o + b] += ur * yr[b] - ui * yi[b];
-      gi[o + b] += ur * yi[b] + ui * yr[b];
-    }
-  }
 }

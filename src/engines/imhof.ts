@@ -14,10 +14,11 @@
  * |K15 - G7| estimates plus a rounding allowance. Absolute accuracy: small tail probabilities come
  * out as 1/2 minus a number near 1/2, so relative accuracy in the far tails is the Pan engine's job.
  */
-import { adaptiveIntegrate } from '../core/quadrature.js';
+import { adaptiveIntegrate } from '../numeric/quadrature.js';
 import { exactTail } from '../core/exact-tail.js';
-import { convexityCut, probabilityTailBound } from '../core/convexity-cut.js';
+import { convexityCut, probabilityTailBound } from '../numeric/convexity-cut.js';
 import type { CharacteristicForm, Tail, TailProbability } from '../core/types.js';
+import { POLICY } from '../policy.js';
 
 /** Options shared by the Imhof-type engines. */
 export interface ImhofOptions {
@@ -44,7 +45,7 @@ export interface ImhofIntegral {
  * ```
  */
 export function integrateImhof(form: CharacteristicForm, options: ImhofOptions = {}): ImhofIntegral {
-  const tol = options.tolerance ?? 1e-11;
+  const tol = options.tolerance ?? POLICY.tolerances.PROBABILITY_TOLERANCE;
   const { m, sumLogAbsLambda, maxAbsLambda, sumLambda } = form;
   if (!(maxAbsLambda > 0) || m === 0) {
     // Q is identically zero: P(Q <= 0) = 1
@@ -62,7 +63,7 @@ export function integrateImhof(form: CharacteristicForm, options: ImhofOptions =
   };
   // A form with a floored weight sum (the eigen-free engine) vouches for T(U) only up to
   // U <= validBelow; beyond it the cut is placed by the convexity bound instead, which holds for
-  // any weights (src/core/convexity-cut.ts)
+  // any weights (src/numeric/convexity-cut.ts)
   let cutAt = upper;
   let cutBound = truncation;
   let extra = 0;
@@ -171,7 +172,7 @@ export function imhofTail(nu: Float64Array, c: number, tail: Tail, options: Imho
 export function imhofDensity(nu: Float64Array, c: number, options: ImhofOptions = {}): { value: number; errorBound: number } {
   const m = nu.length;
   if (c <= nu[0] || c >= nu[m - 1]) return { value: 0, errorBound: 0 };
-  const tol = options.tolerance ?? 1e-10;
+  const tol = options.tolerance ?? POLICY.tolerances.DENSITY_TOLERANCE;
   const lambda = new Float64Array(m);
   let maxAbs = 0;
   for (let j = 0; j < m; j++) { lambda[j] = nu[j] - c; maxAbs = Math.max(maxAbs, Math.abs(lambda[j])); }

@@ -35,6 +35,7 @@
 import { DwError } from '../errors.js';
 import type { Tail, TailProbability } from '../core/types.js';
 import { exactTail } from '../core/exact-tail.js';
+import { POLICY } from '../policy.js';
 
 /** Options for {@link panTail}. */
 export interface PanOptions {
@@ -51,7 +52,7 @@ export interface PanOptions {
 const EPS = 2.220446049250313e-16;
 
 /** Default target absolute error. */
-const DEFAULT_TOLERANCE = 1e-12;
+const DEFAULT_TOLERANCE = POLICY.tolerances.PAN_TOLERANCE;
 
 /**
  * Two eigenvalues on the integrated side closer than this fraction of the spread nu_m - nu_1
@@ -63,14 +64,14 @@ const DEFAULT_TOLERANCE = 1e-12;
  * spectra of the Durbin-Watson kind have relative gaps of about 7 / n^2 (8e-5 at n = 300), far
  * above it.
  */
-const TIE_GAP = 1e-6;
+const TIE_GAP = POLICY.tolerances.PAN_TIE_GAP;
 
 /**
  * Largest m for which Pan's engine is accepted without knowing c: the worst point (the middle of
  * the support) then keeps the rounding bound below about 2e-13 for Durbin-Watson spectra, 6e-14
  * for evenly spaced ones. Beyond it, ask with c: the tails remain accurate for any m.
  */
-const ANY_C_MAX_M = 24;
+const ANY_C_MAX_M = POLICY.limits.PAN_ANY_C_MAX_M;
 
 /** Below this the requested tail is computed by its own form rather than as 1 - other. */
 const SMALL_TAIL = 0.1;

@@ -16,9 +16,10 @@
  * accuracy however small it is. Truncation at T: |1 - 2 s lambda_j| >= 2 t |lambda_j| and
  * |s| >= t give a tail of at most T^(-m/2) / ((m/2) pi prod (2|lambda_j|)^(1/2)).
  */
-import { adaptiveIntegrate } from '../core/quadrature.js';
+import { adaptiveIntegrate } from '../numeric/quadrature.js';
 import { exactTail } from '../core/exact-tail.js';
 import type { Tail, TailProbability } from '../core/types.js';
+import { POLICY } from '../policy.js';
 
 /**
  * P(d <= c) (lower) or P(d >= c) (upper) for the spectrum `nu` by the shifted inversion. Meant for
@@ -29,7 +30,7 @@ import type { Tail, TailProbability } from '../core/types.js';
  * contourTail(nu, nu[0] + 0.01, 'lower'); // { p: 3.2e-19, relativeError: 1e-10, ... }
  * ```
  */
-export function contourTail(nu: Float64Array, c: number, tail: Tail, relTolerance = 1e-10): TailProbability {
+export function contourTail(nu: Float64Array, c: number, tail: Tail, relTolerance = POLICY.tolerances.CONTOUR_RELATIVE_TOLERANCE): TailProbability {
   const m = nu.length;
   const below = tail === 'lower';
   if (c <= nu[0]) return exactTail(below ? 0 : 1, 'saddlepoint');

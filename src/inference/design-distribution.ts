@@ -5,7 +5,7 @@
  */
 import type { DwNullDistribution } from '../distribution/null-distribution.js';
 import type { RegressorInput } from '../model/design.js';
-import { prepareProblem, type ProblemOptions } from './problem.js';
+import { prepareProblem, type ProblemOptions } from '../problem/problem.js';
 
 /**
  * The exact null distribution of d for regressors `x` with `n` observations (an intercept is added

@@ -10,7 +10,7 @@
  */
 import { rowCount, type RegressorInput } from '../model/design.js';
 import { checkAlpha } from '../core/alternative.js';
-import { prepareProblem, type ProblemOptions } from './problem.js';
+import { prepareProblem, type ProblemOptions } from '../problem/problem.js';
 import type { DwTestInput, DesignReuse, DwPValues, DwTestResult, TestRun } from './test-types.js';
 import { pValuesFor } from './p-values.js';
 import { runSeries } from './series-test.js';

@@ -6,7 +6,7 @@
  */
 import { DwError } from '../errors.js';
 import type { Alternative } from '../core/alternative.js';
-import type { DwProblem } from './problem.js';
+import type { DwProblem } from '../problem/problem.js';
 import type { DwPValues } from './test-types.js';
 
 /**

@@ -6,7 +6,7 @@
  */
 import { DwError } from '../errors.js';
 import { differencePairs } from '../core/difference.js';
-import type { DwProblem } from './problem.js';
+import type { DwProblem } from '../problem/problem.js';
 import { detectLaggedDependent } from '../dynamic/lagged-dependent.js';
 import type { DwWarning } from './warnings.js';
 

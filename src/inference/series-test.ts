@@ -10,7 +10,7 @@ import { fitLeastSquares, type Coefficient } from '../model/ols.js';
 import { designErrorAllowance } from '../model/design.js';
 import { checkAlpha, checkAlternative } from '../core/alternative.js';
 import type { DynamicModelCheck } from '../core/result-types.js';
-import { prepareProblem } from './problem.js';
+import { prepareProblem } from '../problem/problem.js';
 import { dynamicModelCheck, breuschGodfrey, type BreuschGodfrey } from '../dynamic/serial-tests.js';
 import { boundsZone } from '../bounds/zone.js';
 import { MAX_BOUNDS_N } from '../bounds/spectra.js';

@@ -9,7 +9,7 @@ import type { Coefficient } from '../model/ols.js';
 import type { RegressorInput } from '../model/design.js';
 import type { Alternative } from '../core/alternative.js';
 import type { BoundsZone, PowerSummary, DynamicModelCheck } from '../core/result-types.js';
-import type { DwProblem, ProblemOptions } from './problem.js';
+import type { DwProblem, ProblemOptions } from '../problem/problem.js';
 import type { BreuschGodfrey } from '../dynamic/serial-tests.js';
 import type { ErrorProcess } from '../power/weights.js';
 import type { PanelInput, PanelSummary } from '../panel/panel.js';

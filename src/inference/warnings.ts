@@ -4,6 +4,7 @@
  * format, the command line and the page. New codes may be added; existing ones keep their meaning.
  */
 import type { TimeFrequency, TimeLabelFormat } from '../data/time-index.js';
+import type { DesignNote } from '../problem/problem.js';
 
 /** One note on a result. */
 export type DwWarning =
@@ -13,8 +14,8 @@ export type DwWarning =
   | { code: 'TIME_GAPS_NOT_HONOURED'; column: string }
   /** Rows with a missing value in a used column were dropped (1-based data rows); they are gaps. */
   | { code: 'ROWS_DROPPED'; count: number; rows: number[]; asGaps: boolean }
-  /** The design is ill-conditioned. */
-  | { code: 'DESIGN_ILL_CONDITIONED'; condition: number }
+  /** The design is ill-conditioned (raised where the design is prepared). */
+  | DesignNote
   /** Caller's residuals had a small component in col(X) (rounding), removed before computing d. */
   | { code: 'RESIDUALS_PROJECTED'; drift: number }
   /** No intercept: the bounds tables do not apply. */

@@ -7,7 +7,8 @@
  * leaves it out (a constant column the caller supplies still counts as an intercept).
  */
 import { DwError } from '../errors.js';
-import { applyQt, householderQR, type HouseholderQR } from '../core/qr.js';
+import { applyQt, householderQR, type HouseholderQR } from '../linalg/qr.js';
+import { POLICY } from '../policy.js';
 
 /** Name given to the intercept column the library adds. */
 export const INTERCEPT_NAME = '(intercept)';
@@ -191,7 +192,7 @@ export interface FactoredDesign {
  * Relative size of |R_jj| (of the centred, unit-length columns) below which a column counts as a
  * linear combination of the columns before it.
  */
-export const RANK_TOLERANCE = 1e-10;
+export const RANK_TOLERANCE = POLICY.tolerances.RANK_TOLERANCE;
 /**
  * Condition number (of the centred and scaled design, {@link FactoredDesign.condition}) above which
  * the design is refused with ILL_CONDITIONED. Measured (test/robustness.test.ts, table in
@@ -199,14 +200,14 @@ export const RANK_TOLERANCE = 1e-10;
  * {@link CONDITION_ERROR_FACTOR} x condition x 2^-52 through rounding in the design, so at this
  * limit by less than 1e-8 (the statistic d likewise).
  */
-export const CONDITION_LIMIT = 1e7;
+export const CONDITION_LIMIT = POLICY.tolerances.CONDITION_LIMIT;
 /** Condition number above which a warning is given (rounding in the design may then exceed 1e-10 in p). */
-export const CONDITION_WARNING = 1e5;
+export const CONDITION_WARNING = POLICY.tolerances.CONDITION_WARNING;
 /**
  * Largest measured ratio |error in d or p| / (condition x 2^-52) over the designs of
  * test/robustness.test.ts (polynomial trends in raw years against their centred form), rounded up.
  */
-export const CONDITION_ERROR_FACTOR = 1;
+export const CONDITION_ERROR_FACTOR = POLICY.tolerances.CONDITION_ERROR_FACTOR;
 
 /**
  * Allowance for rounding in the design: a bound (by measurement, see

@@ -4,8 +4,9 @@
  * caller's columns, and their standard errors from sigma^2 (X'X)^-1.
  */
 import { DwError } from '../errors.js';
-import { applyQ, applyQt } from '../core/qr.js';
+import { applyQ, applyQt } from '../linalg/qr.js';
 import { designErrorAllowance, type FactoredDesign } from './design.js';
+import { POLICY } from '../policy.js';
 
 /**
  * Largest rounding error in d that a fit may carry. Rounding in the design and the fit moves the
@@ -14,7 +15,7 @@ import { designErrorAllowance, type FactoredDesign } from './design.js';
  * exceeds this is refused with RESIDUALS_ZERO: y is then, to working precision, a linear
  * combination of the regressors (for a well-conditioned design: ||e|| below about 2e-8 ||y - ybar||).
  */
-export const D_ROUNDING_LIMIT = 1e-8;
+export const D_ROUNDING_LIMIT = POLICY.tolerances.D_ROUNDING_LIMIT;
 
 /** One estimated coefficient. */
 export interface Coefficient {

@@ -32,29 +32,30 @@
 import { DwError } from '../errors.js';
 import type { Tail } from '../core/types.js';
 import { integrateImhof, spectralForm } from '../engines/imhof.js';
-import { brentRoot } from '../distribution/root.js';
+import { brentRoot } from '../numeric/root.js';
 import type { RegressorInput } from '../model/design.js';
-import { prepareProblem, type DwProblem, type ProblemOptions } from '../inference/problem.js';
+import { prepareProblem, type DwProblem, type ProblemOptions } from '../problem/problem.js';
 import { rowCount } from '../model/design.js';
 import type { PowerSummary } from '../core/result-types.js';
 import { checkAlpha, checkAlternative, type Alternative } from '../core/alternative.js';
 import { checkRho, powerContext, rhoFactor, weightsAt, type ErrorProcess, type PowerContext } from './weights.js';
 import { alternativeStructure, eigenfreeAlternativeTail, type AlternativeStructure } from './eigenfree-power.js';
-import { columnBasis } from '../core/qr.js';
+import { columnBasis } from '../linalg/qr.js';
 import { checkPowerSize, POWER_MAX_N } from '../limits.js';
+import { POLICY } from '../policy.js';
 
 /**
  * Largest n for the dense power route (each rho costs O(n^3): about 0.9 s per rho at n = 600,
  * k = 3). Larger problems take the eigen-free route, up to POWER_MAX_N (src/limits.ts).
  */
-export const POWER_SIZE_LIMIT = 600;
+export const POWER_SIZE_LIMIT = POLICY.limits.POWER_SIZE_LIMIT;
 
 /**
  * `auto` takes the dense route for n <= max(POWER_DENSE_MAX_N, 25 k) (and n <= POWER_SIZE_LIMIT): there
  * it is about as fast as the eigen-free route or faster and gives the weights themselves; above it the
  * eigen-free route wins (measured, see the file comment).
  */
-export const POWER_DENSE_MAX_N = 100;
+export const POWER_DENSE_MAX_N = POLICY.limits.POWER_DENSE_MAX_N;
 
 /**
  * The route `auto` takes for n observations and k columns.

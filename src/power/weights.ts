@@ -21,8 +21,8 @@
  */
 import { DwError } from '../errors.js';
 import { bandToDense } from '../core/difference.js';
-import { congruence, type HouseholderQR } from '../core/qr.js';
-import { symmetricEigenvalues } from '../core/symmetric-eigen.js';
+import { congruence, type HouseholderQR } from '../linalg/qr.js';
+import { symmetricEigenvalues } from '../linalg/symmetric-eigen.js';
 import type { BandMatrix } from '../core/types.js';
 
 /** The autocorrelated error process under the alternative. */

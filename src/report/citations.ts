@@ -13,7 +13,7 @@
  * them against the journals before a final submission.
  */
 import type { DwTestResult } from '../inference/dw-test.js';
-import type { InlineFormat } from './format.js';
+import type { InlineFormat } from './inline-format.js';
 import { VERSION } from '../version.js';
 
 /** One cited work. */

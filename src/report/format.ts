@@ -8,9 +8,9 @@
  */
 import { PAPER_STYLE, REPORT_STYLE, formatProbability, type FormattedProbability, type ProbabilityContext, type ProbabilityStyle } from '../core/format-number.js';
 import { citeInline } from './citations.js';
+import type { InlineFormat } from './inline-format.js';
 
-/** Output formats of the renderers. */
-export type InlineFormat = 'text' | 'markdown' | 'latex';
+export type { InlineFormat } from './inline-format.js';
 
 const OPEN = '⟨';
 const CLOSE = '⟩';

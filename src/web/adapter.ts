@@ -10,7 +10,7 @@
  * each of its other marked lines by `return null;`.
  */
 import { runExactDwTest, type DwTestInput, type DwTestResult } from '../inference/dw-test.js';
-import { prepareProblem, type DwProblem } from '../inference/problem.js';
+import { prepareProblem, type DwProblem } from '../problem/problem.js';
 import { renderText } from '../report/text.js';
 import { renderDensitySvg, paperParagraph, renderMarkdown } from '../report/index.js'; // REPORTS
 import { powerForProblem } from '../power/exact-power.js'; // POWER

@@ -1,5 +1,5 @@
 /** `exact-dw critical`: exact critical values of d at level alpha for a design. */
-import { prepareProblem } from '../../inference/problem.js';
+import { prepareProblem } from '../../problem/problem.js';
 import { checkAlpha } from '../../core/alternative.js';
 import { choiceOption, numberOption, required } from '../args.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, applyTimeRule, designColumns, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';

@@ -10,7 +10,7 @@ import { dirname, join, resolve } from 'node:path';
 import { DwError } from '../../errors.js';
 import { numericColumn, parseCsv } from '../../data/csv.js';
 import { exactDwTest } from '../../inference/dw-test.js';
-import { prepareProblem } from '../../inference/problem.js';
+import { prepareProblem } from '../../problem/problem.js';
 import { renderText } from '../../report/text.js';
 import { renderMarkdown } from '../../report/markdown.js';
 import { renderLatex } from '../../report/latex.js';

@@ -1,7 +1,7 @@
 /** `exact-dw power`: exact power of the test against AR(1) errors for a design (src/power/). */
 import { DwError } from '../../errors.js';
 import type { Alternative } from '../../inference/dw-test.js';
-import { prepareProblem } from '../../inference/problem.js';
+import { prepareProblem } from '../../problem/problem.js';
 import { powerForProblem, type PowerRoute } from '../../power/exact-power.js';
 import type { ErrorProcess } from '../../power/weights.js';
 import { choiceOption, numberOption, required } from '../args.js';

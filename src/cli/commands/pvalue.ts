@@ -4,7 +4,7 @@ import { warningText } from '../../report/wording.js';
 import { DwError } from '../../errors.js';
 import { durbinWatson } from '../../core/difference.js';
 import { numericColumn } from '../../data/csv.js';
-import { prepareProblem } from '../../inference/problem.js';
+import { prepareProblem } from '../../problem/problem.js';
 import { checkResiduals, pValuesFor } from '../../inference/dw-test.js';
 import { choiceOption, numberOption, required } from '../args.js';
 import { CSV_OPTIONS, MODEL_OPTIONS, applyTimeRule, designColumns, formatP, loadTable, problemOptions, DESIGN_OPTION, TEXT_JSON_FORMAT } from '../shared.js';

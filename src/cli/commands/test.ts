@@ -10,7 +10,7 @@ import { DwError } from '../../errors.js';
 import { columnIndex, numericColumn, textColumn } from '../../data/csv.js';
 import { chooseTimeIndex } from '../../data/time-index.js';
 import { runExactDwTest, type Alternative, type DwTestResult } from '../../inference/dw-test.js';
-import type { DwProblem, ProblemOptions } from '../../inference/problem.js';
+import type { DwProblem, ProblemOptions } from '../../problem/problem.js';
 import type { RegressorInput } from '../../model/design.js';
 import { renderText } from '../../report/text.js';
 import { renderMarkdown } from '../../report/markdown.js';

@@ -2,9 +2,9 @@
  * Where a null distribution comes from: an explicit spectrum (bounds, closed forms), or a design
  * (operator A and a basis of col(X)) whose spectrum is computed only when an engine needs it.
  */
-import type { BandMatrix, ColumnBasis } from '../core/types.js';
-import { spectrumMean, spectrumVariance } from '../core/spectrum.js';
-import { bandMultiply } from '../core/difference.js';
+import type { BandMatrix, ColumnBasis } from './types.js';
+import { spectrumMean, spectrumVariance } from './spectrum.js';
+import { bandMultiply } from './difference.js';
 
 /** The inputs every engine can draw from. */
 export interface NullSource {

@@ -4,7 +4,15 @@
  * the diagonal of column j with v_j[j] = 1 implicit. Q = H_1 ... H_k; the first k columns of Q
  * span col(X), the last n - k span its orthogonal complement.
  */
-import type { ColumnBasis } from './types.js';
+/**
+ * An orthonormal basis of col(X): `q` is n x k, column-major (column j occupies
+ * q[j*n .. j*n + n - 1]). Q'Q = I to working precision.
+ */
+export interface ColumnBasis {
+  n: number;
+  k: number;
+  q: Float64Array;
+}
 
 /** A Householder QR factorisation in factored form. */
 export interface HouseholderQR {

@@ -3,15 +3,14 @@
  * design, build the difference operator (lag, gaps), and tie the spectrum to the engines.
  */
 import { differenceMatrix, differencePairs, type DifferencePairs } from '../core/difference.js';
-import { columnBasis } from '../core/qr.js';
+import { columnBasis } from '../linalg/qr.js';
 import { fastSpectrum } from '../core/fast-spectrum.js';
 import { checkSize } from '../limits.js';
 import type { BandMatrix, MethodChoice } from '../core/types.js';
 import { DwNullDistribution } from '../distribution/null-distribution.js';
-import { designSource, type NullSource } from '../distribution/source.js';
+import { designSource, type NullSource } from '../core/source.js';
 import { AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { DwError } from '../errors.js';
-import type { DwWarning } from './warnings.js';
 import { buildDesign, factorDesign, CONDITION_WARNING, type FactoredDesign, type RegressorInput } from '../model/design.js';
 
 /** What defines the statistic and its design. */
@@ -30,6 +29,12 @@ export interface ProblemOptions {
   tolerance?: number;
 }
 
+/**
+ * The note preparing a design can raise (one member of `DwWarning`, src/inference/warnings.ts,
+ * declared here so that this layer does not import the one above it).
+ */
+export type DesignNote = { code: 'DESIGN_ILL_CONDITIONED'; condition: number };
+
 /** A design ready for exact inference on d. */
 export interface DwProblem {
   factored: FactoredDesign;
@@ -37,7 +42,7 @@ export interface DwProblem {
   operator: BandMatrix;
   distribution: DwNullDistribution;
   /** Notes on the design worth showing the user. */
-  warnings: DwWarning[];
+  warnings: DesignNote[];
 }
 
 /**
@@ -85,7 +90,7 @@ export function prepareProblem(x: RegressorInput, n: number, options: ProblemOpt
   const source = designSource(n - design.k, operator, basis, () => fastSpectrum(operator, basis), spectrumError);
   const distribution = new DwNullDistribution(source, { method: options.method, tolerance: options.tolerance });
   checkNotDegenerate(source, n);
-  const warnings: DwWarning[] = [];
+  const warnings: DesignNote[] = [];
   if (factored.condition > CONDITION_WARNING) warnings.push({ code: 'DESIGN_ILL_CONDITIONED', condition: factored.condition });
   return { factored, pairs, operator, distribution, warnings };
 }
