@@ -247,10 +247,10 @@ describe('accuracy claims of README.md', () => {
     expect(Number(m![1])).toBe(total);
   });
 
-  it('the engine agreement README quotes is the one test/agreement.test.ts runs', () => {
+  it('the engine agreement README quotes is the one test/engines/agreement.test.ts runs', () => {
     const m = /agree to (\S+): Imhof's integral on the spectrum of the design and Pan's finite-range form on (\d+)\s+seeded designs, and an eigen-free route [^;]*? on (\d+) of them/.exec(TEXT['README.md']);
     expect(m).not.toBeNull();
-    const test = read('test/agreement.test.ts');
+    const test = read('test/engines/agreement.test.ts');
     expect(test).toContain(`describe('engine agreement on ${m![2]} seeded random designs`);
     expect(test).toContain(`eigen-free on ${m![3]})`);
     expect(test).toContain(`agree to ${m![1]} wherever two apply`);

@@ -17,7 +17,7 @@
  * bound, added to it), which saves the second integral. Near the ends of the support, and where
  * the density cannot be bounded (two weights), the single test's rule is used as it is. Hence every
  * probability is the single test's up to rounding in the integrand (about 1e-15), and every error
- * bound is built from the same terms (test/batch-fast-tail.test.ts).
+ * bound is built from the same terms (test/batch/batch-fast-tail.test.ts).
  */
 import type { DwNullDistribution } from '../distribution/null-distribution.js';
 import type { Tail, TailProbability } from '../core/types.js';

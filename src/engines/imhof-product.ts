@@ -18,7 +18,7 @@
  * Rounding: each complex multiplication has a relative (normwise) error below sqrt(2) * 2 eps, so
  * theta and log rho carry absolute errors of order m eps, the same order as the sums of m rounded
  * arctangents and logarithms of {@link spectralForm}; the two forms agree to about 1e-14 in the
- * probability (test/imhof-product.test.ts), far inside the engines' error bounds. Used by the batch
+ * probability (test/engines/imhof-product.test.ts), far inside the engines' error bounds. Used by the batch
  * (src/batch/fast-tail.ts), where Imhof's integral was most of the cost of a series at n ~ 50; the
  * same pass also gives the density of d (the derivative of Imhof's form in c) for one division per
  * weight more.

@@ -19,7 +19,7 @@
  *  - log Gamma: Lanczos's approximation (Lanczos 1964, SIAM J. Numer. Anal. B 1) with g = 7 and nine
  *    coefficients, relative error near 1e-15 for x >= 1/2, and the reflection formula below.
  *
- * Accuracy (test/dynamic.test.ts, against closed forms, mpmath values and jstat): the normal tails
+ * Accuracy (test/dynamic/dynamic.test.ts, against closed forms, mpmath values and jstat): the normal tails
  * to a few units of 1e-16 relative; chi-square, F and t tails to about 1e-16 times the size of the
  * exponent of their prefactor (a log x - x - log Gamma(a)), i.e. 1e-15 to 1e-13 relative.
  */

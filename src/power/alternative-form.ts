@@ -84,7 +84,7 @@ export interface AlternativeForm extends CharacteristicForm {
  * u = 1 / tau).
  *
  * Accuracy: theta and log rho agree with the dense route's weights to about 1e-12 relative to
- * 1 + |value| (n = 60..200, lag 1 and 4, gapped times; test/power-eigenfree.test.ts); at rho = 0.95
+ * 1 + |value| (n = 60..200, lag 1 and 4, gapped times; test/power/power-eigenfree.test.ts); at rho = 0.95
  * the dense weights are the less accurate of the two (against ml-matrix's eigenvalues of L'MCML:
  * 2.5e-12 against 1.2e-13 in theta at u = 1946, seasonal process, n = 80).
  *

@@ -17,7 +17,7 @@
  *
  * This is the Markov property of the AR(1) process observed at arbitrary times. It is checked
  * through the form built on it, which agrees with the dense route that builds S itself
- * (test/power-eigenfree.test.ts).
+ * (test/power/power-eigenfree.test.ts).
  */
 import { DwError } from '../errors.js';
 import type { BandMatrix, ColumnBasis } from '../core/types.js';

@@ -1,0 +1,128 @@
+/**
+ * `exact-dw batch` and `exact-dw test --panel` on the command line: formats, per-group errors,
+ * adjustment, files never overwritten, worker threads giving the same numbers as one thread
+ * (through the built CLI, dist/), and the panel p-value equal to the library's (whose outside
+ * check is test/panel/panel.test.ts against test/ref/panel-reference.json).
+ */
+import { describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { cli, scratch } from '../helpers/cli.js';
+import { exactDwBatch } from '../../src/batch/batch.js';
+import { parseCsv } from '../../src/data/csv.js';
+import { referenceJson } from '../helpers/reference.js';
+
+const dir = scratch();
+// invented data: 9 stations, 16 periods; stations 1-6 share a design, 7 and 8 their own, 9 has 2 rows
+function stations(): string {
+  const lines = ['station,period,flow,rain'];
+  for (let s = 1; s <= 9; s++) {
+    const n = s === 9 ? 2 : 16;
+    for (let t = 1; t <= n; t++) {
+      const rain = (2 + Math.cos(0.9 * t + (s > 6 ? s : 0))).toFixed(4);
+      const flow = (5 + 0.7 * Number(rain) + Math.sin(1.7 * t * s) + 0.6 * Math.sin(0.5 * t + s)).toFixed(4);
+      lines.push(`st${s},${t},${flow},${rain}`);
+    }
+  }
+  return lines.join('\n') + '\n';
+}
+const data = join(dir, 'stations.csv');
+writeFileSync(data, stations());
+const args = [data, '--by', 'station', '--y', 'flow', '--x', 'rain', '--time', 'period'];
+
+describe('exact-dw batch', () => {
+  it('JSON: one entry per group, the small group as an error entry, the summary counts it', async () => {
+    const r = await cli('batch', ...args, '--format', 'json', '--adjust', 'bh', '--workers', '1');
+    expect(r.status).toBe(0);
+    expect(r.err).toBe('');
+    const j = JSON.parse(r.out);
+    expect(j.groups).toHaveLength(9);
+    expect(j.groups[8]).toMatchObject({ group: 'st9', pValue: null, pAdjusted: null, decision: null, error: { code: 'TOO_FEW_ROWS' } });
+    expect(j.summary).toMatchObject({ groups: 9, tested: 8, failed: 1, designs: 3 });
+    const lib = exactDwBatch({ table: parseCsv(stations()), by: 'station', y: 'flow', x: ['rain'], time: 'period', adjust: 'bh' });
+    expect(j.groups.map((g: { pAdjusted: number | null }) => g.pAdjusted)).toEqual(lib.groups.map((g) => g.pAdjusted));
+  });
+
+  it('Markdown (default), CSV and booktabs LaTeX tables', async () => {
+    const md = await cli('batch', ...args, '--adjust', 'holm');
+    expect(md.out).toMatch(/^\| series \| \*n\* \| \*k\* \| \*d\* \| \*p\* \| \*p\* \(Holm\) \| decision \|/);
+    expect(md.out).toMatch(/st9: .*TOO_FEW_ROWS/);
+    expect(md.out).toMatch(/independent, normally distributed errors .* exogenous regressors .* does not replace, the judgement/);
+    const csv = await cli('batch', ...args, '--format', 'csv');
+    const lines = csv.out.trim().split('\n');
+    expect(lines[0]).toBe('group,n,k,d,p_value,p_adjusted,decision,d_lower_critical,d_upper_critical,error_bound,bounds_zone,design,error_code,error_message');
+    expect(lines).toHaveLength(10);
+    expect(lines[9]).toMatch(/^st9,,,,,,error,.*TOO_FEW_ROWS/);
+    const tex = await cli('batch', ...args, '--format', 'latex', '--adjust', 'bh');
+    expect(tex.out).toMatch(/\\toprule/);
+    expect(tex.out).toMatch(/\\midrule/);
+    expect(tex.out).toMatch(/\\bottomrule/);
+    expect(tex.out).toMatch(/p_\{\\mathrm\{BH\}\}/);
+  });
+
+  it('--out never replaces a file without --force', async () => {
+    const out = join(dir, 'table.md');
+    writeFileSync(out, 'keep me');
+    const r = await cli('batch', ...args, '--out', out);
+    expect(r.status).toBe(2);
+    expect(r.err).toMatch(/already exists.*\[FILE_EXISTS\]/);
+    expect(readFileSync(out, 'utf8')).toBe('keep me');
+    const f = await cli('batch', ...args, '--out', out, '--force');
+    expect(f.status).toBe(0);
+    expect(readFileSync(out, 'utf8')).toMatch(/^\| series/);
+  });
+
+  it('file-level problems are one line and exit 2', async () => {
+    for (const [argv, code] of [
+      [[data, '--by', 'site', '--y', 'flow'], 'COLUMN_UNKNOWN'],
+      [[data, '--y', 'flow'], 'OPTION_MISSING'],
+      [[data, '--by', 'station', '--y', 'flow', '--adjust', 'bonferroni'], 'OPTION_VALUE'],
+      [[join(dir, 'nope.csv'), '--by', 'station', '--y', 'flow'], 'FILE_NOT_FOUND'],
+    ] as const) {
+      const r = await cli('batch', ...argv);
+      expect(r.status).toBe(2);
+      expect(r.out).toBe('');
+      expect(r.err.trim().split('\n')).toHaveLength(1);
+      expect(r.err).toMatch(new RegExp(`\\[${code}\\]$`, 'm'));
+    }
+  });
+
+  it('two worker threads give the same numbers as one (built CLI)', () => {
+    const main = join(process.cwd(), 'dist/src/cli/main.js');
+    if (!existsSync(main)) throw new Error('build first (npm test builds)');
+    const run = (w: string) => JSON.parse(execFileSync(process.execPath, [main, 'batch', ...args, '--format', 'json', '--adjust', 'holm', '--workers', w], { encoding: 'utf8' }));
+    const one = run('1');
+    const two = run('2');
+    const strip = (j: { groups: Array<Record<string, unknown>> }) => j.groups.map(({ design: _d, ...rest }) => rest);
+    expect(strip(two)).toEqual(strip(one));
+    expect(two.summary.tested).toBe(one.summary.tested);
+  });
+});
+
+describe('exact-dw test --panel', () => {
+  const ref = referenceJson('panel-reference.json') as {
+    rows: Array<{ entity: string; time: number; y: number; x1: number; x2: number }>; cases: Array<{ entityEffects: boolean; pPositive: number; d: number }>;
+  };
+  const file = join(dir, 'panel.csv');
+  writeFileSync(file, 'entity,year,y,x1,x2\n' + ref.rows.map((r) => `${r.entity},${r.time},${r.y},${r.x1},${r.x2}`).join('\n') + '\n');
+  for (const c of ref.cases) {
+    it(`the JSON p-value matches the numpy/mpmath reference (${c.entityEffects ? 'entity effects' : 'pooled'})`, async () => {
+      const r = await cli('test', file, '--y', 'y', '--panel', 'entity', '--time', 'year', '--format', 'json', ...(c.entityEffects ? ['--entity-effects'] : []));
+      expect(r.status).toBe(0);
+      const j = JSON.parse(r.out);
+      expect(Math.abs(j.pPositive - c.pPositive)).toBeLessThan(1e-9);
+      expect(Math.abs(j.d - c.d)).toBeLessThan(1e-12);
+      expect(j.bounds).toBeNull();
+      expect(j.panel.entities).toBe(4);
+    });
+  }
+  it('--panel needs --time; --entity-effects needs --panel', async () => {
+    const a = await cli('test', file, '--y', 'y', '--panel', 'entity');
+    expect(a.status).toBe(2);
+    expect(a.err).toMatch(/\[OPTION_MISSING\]/);
+    const b = await cli('test', file, '--y', 'y', '--x', 'x1', '--entity-effects');
+    expect(b.status).toBe(2);
+    expect(b.err).toMatch(/\[OPTION_CONFLICT\]/);
+  });
+});
