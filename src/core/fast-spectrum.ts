@@ -237,6 +237,11 @@ function chainEigenbasis(chains: OperatorChains, basis: ColumnBasis): { values: 
 /** Sort the eigenvalues ascending and permute the coordinate vectors alike. */
 function sortBasis(values: Float64Array, coords: Float64Array[]): { values: Float64Array; coords: Float64Array[] } {
   const N = values.length;
+  let sorted = true;
+  for (let i = 1; i < N && sorted; i++) sorted = values[i - 1] <= values[i];
+  // one chain (consecutive times, lag 1): 4 sin^2(pi j / 2L) already ascends, and the stable sort
+  // below would return the same order
+  if (sorted) return { values, coords };
   const idx = Array.from({ length: N }, (_, i) => i);
   idx.sort((i, j) => values[i] - values[j] || i - j);
   const v = new Float64Array(N);
