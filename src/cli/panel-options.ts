@@ -3,7 +3,8 @@
  * pooled panel test (src/panel/panel.ts), read from the data file and checked where they enter.
  */
 import { DwError } from '../errors.js';
-import { columnIndex, numericColumn, type DataTable } from '../data/csv.js';
+import { columnIndex, numericColumn, textColumn, type DataTable } from '../data/csv.js';
+import { parseTimeLabels, type TimeFrequency } from '../data/time-index.js';
 import type { PanelInput } from '../panel/panel.js';
 import { listOption, type OptionSpecs, type OptionValues } from './args.js';
 
@@ -23,7 +24,7 @@ export const PANEL_OPTIONS: OptionSpecs = {
  * const panel = panelFromOptions(values, table, x); // { entity: [...], time: Float64Array, entityEffects }
  * ```
  */
-export function panelFromOptions(values: OptionValues, table: DataTable, x: Record<string, Float64Array>): PanelInput | undefined {
+export function panelFromOptions(values: OptionValues, table: DataTable, x: Record<string, Float64Array>, frequency?: TimeFrequency): PanelInput | undefined {
   const col = values.panel;
   if (col === undefined) {
     if (values['entity-effects'] === true) {
@@ -34,7 +35,7 @@ export function panelFromOptions(values: OptionValues, table: DataTable, x: Reco
   if (typeof col !== 'string' || col.trim() === '') throw new DwError('OPTION_VALUE', '--panel needs the name of the entity column.', 'Write it like --panel shop.');
   const j = columnIndex(table, col);
   if (typeof values.time !== 'string') {
-    throw new DwError('OPTION_MISSING', '--panel needs --time COL: the period of each row, to know which rows of an entity are consecutive.', 'Add --time with the integer period column.');
+    throw new DwError('OPTION_MISSING', '--panel needs --time COL: the period of each row, to know which rows of an entity are consecutive.', 'Add --time with the period column (whole numbers, quarters, months or ISO dates).');
   }
   if (col === values.time || col === values.y) {
     throw new DwError('OPTION_CONFLICT', `'${col}' cannot be both the entity column and ${col === values.time ? '--time' : '--y'}.`, 'Name separate columns.', { column: col });
@@ -43,9 +44,36 @@ export function panelFromOptions(values: OptionValues, table: DataTable, x: Reco
     throw new DwError('OPTION_CONFLICT', `'${col}' is the entity column and cannot also be a regressor in --x.`, 'Remove it from --x (use --entity-effects for one intercept per entity).', { column: col });
   }
   delete x[col];
+  const entity = table.rows.map((r) => r[j].trim());
   return {
-    entity: table.rows.map((r) => r[j].trim()),
-    time: numericColumn(table, values.time),
+    entity,
+    time: panelTimes(table, values.time, entity, frequency),
     entityEffects: values['entity-effects'] === true,
   };
+}
+
+/**
+ * The period number of every row of a panel: whole numbers as they are; quarter, month or ISO-date
+ * labels (src/data/time-index.ts) read entity by entity, in the order of the labels (these formats
+ * sort as text), with one frequency for all entities.
+ */
+function panelTimes(table: DataTable, column: string, entity: string[], frequency: TimeFrequency | undefined): Float64Array {
+  const cells = textColumn(table, column);
+  if (cells.every((c) => /^\s*[+-]?\d+(\.0*)?\s*$/.test(c))) return numericColumn(table, column);
+  const groups = new Map<string, number[]>();
+  entity.forEach((e, r) => { const g = groups.get(e); if (g) g.push(r); else groups.set(e, [r]); });
+  const out = new Float64Array(cells.length);
+  let seen: { frequency: TimeFrequency; entity: string } | null = null;
+  for (const [e, rows] of groups) {
+    rows.sort((a, b) => (cells[a].trim() < cells[b].trim() ? -1 : cells[a].trim() > cells[b].trim() ? 1 : a - b));
+    const parsed = parseTimeLabels(rows.map((r) => cells[r]), { column, source: table.source, rows: rows.map((r) => r + 1), frequency });
+    if (seen && parsed.frequency !== seen.frequency) {
+      throw new DwError('TIME_FREQUENCY_CONFLICT',
+        `The time labels of entity '${e}' read as ${parsed.frequency} and those of '${seen.entity}' as ${seen.frequency}.`,
+        'Give every entity the same frequency of dates, or name the frequency.', { column });
+    }
+    seen = { frequency: parsed.frequency, entity: e };
+    rows.forEach((r, i) => { out[r] = parsed.periods[i]; });
+  }
+  return out;
 }

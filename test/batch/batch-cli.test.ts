@@ -117,6 +117,19 @@ describe('exact-dw test --panel', () => {
       expect(j.panel.entities).toBe(4);
     });
   }
+  it('quarter labels as the panel times give the reference p-value too (the same periods, read entity by entity, rows shuffled)', async () => {
+    const c = ref.cases.find((x) => !x.entityEffects)!;
+    const label = (t: number) => `${2000 + Math.floor(t / 4)}Q${(t % 4) + 1}`;
+    // reversed row order: the labels are read per entity in their own order, not the file's
+    const lines = ref.rows.map((r) => `${r.entity},${label(r.time)},${r.y},${r.x1},${r.x2}`).reverse();
+    const quarterly = join(dir, 'panel-quarters.csv');
+    writeFileSync(quarterly, 'entity,quarter,y,x1,x2\n' + lines.join('\n') + '\n');
+    const r = await cli('test', quarterly, '--y', 'y', '--panel', 'entity', '--time', 'quarter', '--format', 'json');
+    expect(r.status).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(Math.abs(j.pPositive - c.pPositive)).toBeLessThan(1e-9);
+    expect(Math.abs(j.d - c.d)).toBeLessThan(1e-12);
+  });
   it('--panel needs --time; --entity-effects needs --panel', async () => {
     const a = await cli('test', file, '--y', 'y', '--panel', 'entity');
     expect(a.status).toBe(2);

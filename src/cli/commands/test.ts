@@ -257,7 +257,7 @@ export const testCommand: Command = {
       x: chooseRegressors(table, { ...values, time: timeName ?? undefined }, yName, drop),
     }));
     // a panel's times restart in each entity: they go with the panel, not with the single-series time index
-    const panel = panelFromOptions(values, table, x);
+    const panel = panelFromOptions(values, table, x, frequency);
     const time = timeName !== null && panel === undefined
       ? { labels: textColumn(table, timeName), name: timeName, frequency, detected: choice.how === 'detected', source: table.source }
       : undefined;
