@@ -51,15 +51,7 @@ export const MODEL_OPTIONS: OptionSpecs = {
  * ```
  */
 export function loadTable(io: CliIo, path: string, values: OptionValues): DataTable {
-  const d = values.delimiter;
-  let delimiter: ',' | ';' | '\t' | undefined;
-  if (d !== undefined) {
-    const map: Record<string, ',' | ';' | '\t'> = { ',': ',', comma: ',', ';': ';', semicolon: ';', tab: '\t', '\t': '\t' };
-    delimiter = map[String(d)];
-    if (!delimiter) throw new DwError('OPTION_VALUE', `--delimiter must be ',', ';' or 'tab' (got '${String(d)}').`, "Use --delimiter ';' for files with decimal commas, --delimiter tab for tab-separated files.");
-  }
-  const decimal = values.decimal === undefined ? undefined : choiceOption(values, 'decimal', ['point', 'comma'] as const, 'point');
-  return parseCsv(io.readText(path), { delimiter, decimal, source: `'${path}'` });
+  return parseCsv(io.readText(path), csvOptionsOf(values, path));
 }
 
 /**

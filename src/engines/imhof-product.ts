@@ -23,7 +23,8 @@
  * same pass also gives the density of d (the derivative of Imhof's form in c) for one division per
  * weight more.
  */
-import { integrateImhof, type ImhofOptions } from './imhof.js';
+import { integrateImhof, spectralWeights, type ImhofOptions } from './imhof.js';
+import { XGK, WGK, WG } from '../numeric/quadrature.js';
 import { exactTail } from '../core/exact-tail.js';
 import type { CharacteristicForm, Tail, TailProbability } from '../core/types.js';
 
@@ -45,26 +46,14 @@ const LOG_BIG = 200 * Math.LN2;
  * ```
  */
 export function productSpectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): CharacteristicForm {
-  const m = nu.length;
-  const lambda = new Float64Array(m);
-  let maxAbs = 0;
-  let sum = 0;
-  for (let j = 0; j < m; j++) {
-    lambda[j] = sign * (nu[j] - c);
-    maxAbs = Math.max(maxAbs, Math.abs(lambda[j]));
-    sum += lambda[j];
-  }
-  let count = 0;
-  let sumLog = 0;
-  for (let j = 0; j < m; j++) {
-    const a = Math.abs(lambda[j]);
-    if (a > 1e-13 * maxAbs) { count++; sumLog += Math.log(a); }
-  }
+  const w = spectralWeights(nu, c, sign);
+  const { lambda } = w;
+  const m = lambda.length;
   return {
-    m: count,
-    sumLambda: sum,
-    sumLogAbsLambda: sumLog,
-    maxAbsLambda: maxAbs,
+    m: w.m,
+    sumLambda: w.sumLambda,
+    sumLogAbsLambda: w.sumLogAbsLambda,
+    maxAbsLambda: w.maxAbsLambda,
     evaluate(u: number, out: Float64Array): void {
       let re = 1;
       let im = 0;
@@ -107,23 +96,6 @@ export function imhofProductTail(nu: Float64Array, c: number, tail: Tail, option
   return { p: r.p, errorBound: r.errorBound, relativeError: r.p > 0 ? r.errorBound / r.p : Infinity, method: 'imhof' };
 }
 
-/** Gauss-Kronrod 7-15 nodes and weights (Kronrod 1965, as tabulated in QUADPACK, Piessens et al. 1983). */
-const XGK = [
-  0.991455371120812639206854697526329, 0.949107912342758524526189684047851,
-  0.864864423359769072789712788640926, 0.741531185599394439863864773280788,
-  0.586087235467691130294144845693013, 0.405845151377397166906606412076961,
-  0.207784955007898467600689403773245, 0.0,
-];
-const WGK = [
-  0.02293532201052922496373200805897, 0.063092092629978553290700663189204,
-  0.104790010322250183839876322541518, 0.140653259715525918745189590510238,
-  0.16900472663926790282658342659855, 0.190350578064785409913256402421014,
-  0.204432940075298892414161999234649, 0.209482141084727828012999174891714,
-];
-const WG = [
-  0.129484966168869693270611432679082, 0.27970539148927666790146777142378,
-  0.381830050505118944950369775488975, 0.417959183673469387755102040816327,
-];
 
 /** Weights sign * (nu_j - c) and the data of the truncation bound, as in spectralForm. */
 interface Weights { lambda: Float64Array; m: number; sumLambda: number; sumLog: number; maxAbs: number }

@@ -90,18 +90,18 @@ function geometricBreaks(upper: number, maxAbsLambda: number): number[] {
 }
 
 /**
- * The characteristic form of Q = sign * sum (nu_j - c) z_j^2 from an explicit spectrum. Weights
- * smaller than 1e-13 times the largest are left out of the truncation bound (they still enter
- * theta and rho), which keeps the bound valid and the cut point finite when c hits an eigenvalue.
+ * The weights lambda_j = sign (nu_j - c) of Imhof's integrand and the summaries its truncation bound
+ * needs: the count and log-product of the weights that are not zero to rounding, their sum and
+ * largest magnitude. Shared by every spectral form of this folder.
  *
  * @example
  * ```ts
- * const form = spectralForm(Float64Array.from([0.5, 1, 2, 3]), 1.5);
- * form.m;            // 4
- * form.maxAbsLambda; // 1.5 (the weights nu_j - c are -1, -0.5, 0.5, 1.5)
+ * spectralWeights(Float64Array.from([0.5, 1, 2, 3]), 1.5).maxAbsLambda; // 1.5
  * ```
  */
-export function spectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): CharacteristicForm {
+export function spectralWeights(nu: Float64Array, c: number, sign: 1 | -1 = 1): {
+  lambda: Float64Array; m: number; sumLambda: number; sumLogAbsLambda: number; maxAbsLambda: number;
+} {
   const m = nu.length;
   const lambda = new Float64Array(m);
   let maxAbs = 0;
@@ -117,11 +117,30 @@ export function spectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): Cha
     const a = Math.abs(lambda[j]);
     if (a > 1e-13 * maxAbs) { count++; sumLog += Math.log(a); }
   }
+  return { lambda, m: count, sumLambda: sum, sumLogAbsLambda: sumLog, maxAbsLambda: maxAbs };
+}
+
+/**
+ * The characteristic form of Q = sign * sum (nu_j - c) z_j^2 from an explicit spectrum. Weights
+ * smaller than 1e-13 times the largest are left out of the truncation bound (they still enter
+ * theta and rho), which keeps the bound valid and the cut point finite when c hits an eigenvalue.
+ *
+ * @example
+ * ```ts
+ * const form = spectralForm(Float64Array.from([0.5, 1, 2, 3]), 1.5);
+ * form.m;            // 4
+ * form.maxAbsLambda; // 1.5 (the weights nu_j - c are -1, -0.5, 0.5, 1.5)
+ * ```
+ */
+export function spectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): CharacteristicForm {
+  const w = spectralWeights(nu, c, sign);
+  const { lambda } = w;
+  const m = lambda.length;
   return {
-    m: count,
-    sumLambda: sum,
-    sumLogAbsLambda: sumLog,
-    maxAbsLambda: maxAbs,
+    m: w.m,
+    sumLambda: w.sumLambda,
+    sumLogAbsLambda: w.sumLogAbsLambda,
+    maxAbsLambda: w.maxAbsLambda,
     evaluate(u: number, out: Float64Array): void {
       let theta = 0;
       let logRho = 0;
