@@ -97,27 +97,6 @@ export function imhofProductTail(nu: Float64Array, c: number, tail: Tail, option
 }
 
 
-/** Weights sign * (nu_j - c) and the data of the truncation bound, as in spectralForm. */
-interface Weights { lambda: Float64Array; m: number; sumLambda: number; sumLog: number; maxAbs: number }
-
-function weightsOf(nu: Float64Array, c: number, sign: 1 | -1): Weights {
-  const n = nu.length;
-  const lambda = new Float64Array(n);
-  let maxAbs = 0;
-  let sum = 0;
-  for (let j = 0; j < n; j++) {
-    lambda[j] = sign * (nu[j] - c);
-    maxAbs = Math.max(maxAbs, Math.abs(lambda[j]));
-    sum += lambda[j];
-  }
-  let m = 0;
-  let sumLog = 0;
-  for (let j = 0; j < n; j++) {
-    const a = Math.abs(lambda[j]);
-    if (a > 1e-13 * maxAbs) { m++; sumLog += Math.log(a); }
-  }
-  return { lambda, m, sumLambda: sum, sumLog, maxAbs };
-}
 
 /** One panel of the pair: per integrand the Kronrod value, |K - G| and the sum of |f| w. */
 interface PairPanel { a: number; b: number; v1: number; e1: number; s1: number; v2: number; e2: number; s2: number }
@@ -156,11 +135,11 @@ export function imhofProductWithDensity(nu: Float64Array, c: number, tail: Tail,
   const n = nu.length;
   if (!(c > nu[0] && c < nu[n - 1])) throw new RangeError('imhofProductWithDensity: c must lie strictly inside the support');
   const tol = options.tolerance ?? 1e-11;
-  const w = weightsOf(nu, c, tail === 'lower' ? 1 : -1);
+  const w = spectralWeights(nu, c, tail === 'lower' ? 1 : -1);
   const m = w.m;
-  const logU = (2 / m) * (-Math.log((Math.PI * m * tol) / 8) - 0.5 * w.sumLog);
+  const logU = (2 / m) * (-Math.log((Math.PI * m * tol) / 8) - 0.5 * w.sumLogAbsLambda);
   const upper = Math.exp(logU);
-  const truncation = 1 / (Math.PI * (m / 2) * Math.exp((m / 2) * logU + 0.5 * w.sumLog));
+  const truncation = 1 / (Math.PI * (m / 2) * Math.exp((m / 2) * logU + 0.5 * w.sumLogAbsLambda));
   const l = w.lambda;
   const half = 0.5 * w.sumLambda;
   let g1 = 0;
@@ -187,7 +166,7 @@ export function imhofProductWithDensity(nu: Float64Array, c: number, tail: Tail,
     g1 = Math.sin(theta) / (u * rho);
     g2 = (0.5 * (Math.cos(theta) * a - Math.sin(theta) * b)) / rho;
   };
-  const panels = adaptivePair(at, () => g1, () => g2, upper, w.maxAbs, Math.PI * tol * 0.5, options.maxPanels ?? 4000);
+  const panels = adaptivePair(at, () => g1, () => g2, upper, w.maxAbsLambda, Math.PI * tol * 0.5, options.maxPanels ?? 4000);
   const p = Math.min(1, Math.max(0, 0.5 - panels[0] / Math.PI));
   const errorBound = truncation + (panels[1] + 50 * Number.EPSILON * panels[2]) / Math.PI + 4 * Number.EPSILON;
   const result: TailProbability = { p, errorBound, relativeError: p > 0 ? errorBound / p : Infinity, method: 'imhof' };
@@ -196,7 +175,7 @@ export function imhofProductWithDensity(nu: Float64Array, c: number, tail: Tail,
   // the integrand is at most (n/2) u^(-s/2) prod_S |lambda_j|^(-1/2), whose integral over [U, inf)
   // is (n/2) U^(1 - s/2) / ((s/2 - 1) prod_S |lambda_j|^(1/2)) for s > 2; for s <= 2 no bound
   if (m <= 2) return { tail: result, density: null, densityError: Infinity };
-  const tb = (0.5 * n * Math.exp((1 - m / 2) * logU - 0.5 * w.sumLog)) / (m / 2 - 1);
+  const tb = (0.5 * n * Math.exp((1 - m / 2) * logU - 0.5 * w.sumLogAbsLambda)) / (m / 2 - 1);
   const densityError = tb / Math.PI + (panels[4] + 50 * Number.EPSILON * panels[5]) / Math.PI;
   return { tail: result, density: Math.max(0, panels[3] / Math.PI), densityError };
 }

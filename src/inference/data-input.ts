@@ -6,23 +6,18 @@
  */
 import { DwError } from '../errors.js';
 import type { RegressorInput } from '../model/design.js';
-import { chooseTimeIndex, parseTimeLabels, type TimeFrequency, type TimeLabelFormat } from '../data/time-index.js';
+import { chooseTimeIndex, parseTimeLabels, type TimeFrequency, type TimeIndex, type TimeLabelFormat } from '../data/time-index.js';
 import type { DwWarning } from './warnings.js';
 
-/** The time index of a result, as reported. */
-export interface TimeColumnInfo {
+/**
+ * The time index of a result, as reported: the parsed index without its period numbers (first and
+ * last label and the missing periods are those of the observations used), and where it came from.
+ */
+export interface TimeColumnInfo extends Omit<TimeIndex, 'periods'> {
   /** Column name (null for bare observation times, or data-row numbers). */
   name: string | null;
   /** Named by the caller, detected by the time-index rule, or data-row numbers after dropping rows. */
   how: 'named' | 'detected' | 'rows';
-  format: TimeLabelFormat;
-  frequency: TimeFrequency;
-  frequencySource: 'inferred' | 'given' | 'format';
-  /** First and last label of the observations used. */
-  first: string;
-  last: string;
-  /** Periods missing between the first and the last observation used. */
-  missingPeriods: number;
 }
 
 /** Rows dropped for missing values. */
