@@ -29,5 +29,5 @@ export {
 export {
   renderBatch, renderBatchCsv, renderBatchMarkdown, renderBatchLatex, renderBatchJson, BATCH_FORMATS, type BatchFormat,
 } from './batch/render.js';
-export { renderBoundsTable, type TableFormat } from './bounds/render.js';
+export { renderBoundsTable, type TableFormat } from './report/bounds-table.js';
 export type { InlineFormat } from './report/format.js';

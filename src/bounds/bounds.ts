@@ -44,7 +44,7 @@ export interface DwBounds {
   m: number;
   /** Lower bound d_L: reject in favour of positive autocorrelation when d < dL, whatever X is. */
   dL: number;
-  /** Upper bound d_U: no evidence of positive autocorrelation when d > dU, whatever X is. */
+  /** Upper bound d_U: the bounds test does not reject (against positive autocorrelation) when d > dU, whatever X is. */
   dU: number;
 }
 

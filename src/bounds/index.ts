@@ -12,8 +12,7 @@ export { boundQuantile, boundTail, type BoundQuantile, type BoundQuantileOptions
 export { cosineSpectrumForm } from './cosine-form.js';
 export { boundsZone, zoneOf, formatPValue, type BoundsZoneOptions } from './zone.js';
 export {
-  boundsTable, checkTableRequest, tableConvention, MAX_TABLE_CELLS, MAX_TABLE_WORK,
+  boundsTable, checkTableRequest, MAX_TABLE_CELLS, MAX_TABLE_WORK,
   type BoundsTable, type BoundsTableCell, type BoundsTableRequest,
 } from './table.js';
-export { renderBoundsTable, CSV_HEADER, type TableFormat } from './render.js';
 export { parseIntegerList, parseLevelList } from './ranges.js';

@@ -63,7 +63,7 @@ export interface BoundsTableCell {
   dU: number;
 }
 
-/** A computed table with the conventions it follows. */
+/** A computed table; its conventions (k' excludes the intercept, one-sided alpha) are worded by the renderers (src/report/wording/bounds.ts). */
 export interface BoundsTable {
   intercept: boolean;
   n: number[];
@@ -77,31 +77,6 @@ export interface BoundsTable {
   skipped: number;
   /** Imhof integrals evaluated, for the benchmark. */
   evaluations: number;
-  /** Sentences stating the conventions, for headings. */
-  convention: string[];
-}
-
-/**
- * The sentences every rendering of a bounds table carries, so that k', alpha and the direction of
- * the test cannot be misread.
- *
- * @example
- * ```ts
- * tableConvention(true)[0]; // "k' is the number of regressors other than the intercept (...)"
- * ```
- */
-export function tableConvention(intercept: boolean): string[] {
-  return [
-    intercept
-      ? "k' is the number of regressors other than the intercept (the model has an intercept, so X has k' + 1 columns)."
-      : "k' is the number of regressors; the model has no intercept (X has k' columns; lower bound as in Farebrother 1980, upper bound from the interlacing theorem).",
-    'alpha is the one-sided level of the test against positive first-order autocorrelation: reject when d < d_L, no evidence when d > d_U, inconclusive in between.',
-    'For negative autocorrelation use 4 - d with the same bounds (reject when d > 4 - d_L); for a two-sided test at level 2 alpha use both sides.',
-    intercept
-      ? "Cells with n < k' + 3 are left out (fewer than 2 residual degrees of freedom)."
-      : "Cells with n < k' + 2 are left out (fewer than 2 residual degrees of freedom).",
-    'Exact quantiles of the bounding distributions (Durbin & Watson 1950), computed by exact-dw; not copied from a printed table.',
-  ];
 }
 
 /**
@@ -200,7 +175,7 @@ export function boundsTable(req: BoundsTableRequest): BoundsTable {
       }
     }
   }
-  return { intercept, n, kPrime, alpha, cells, minN, skipped, evaluations, convention: tableConvention(intercept) };
+  return { intercept, n, kPrime, alpha, cells, minN, skipped, evaluations };
 }
 
 /**

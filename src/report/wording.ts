@@ -11,7 +11,7 @@ import type { BatchNote, DwWarning, PanelNote } from '../inference/warnings.js';
 import type { TimeColumnInfo } from '../inference/data-input.js';
 import { andList, code, sym } from './format.js';
 
-export { boundsResolutionWords } from './wording/bounds.js';
+export { boundsResolutionWords, tableConvention } from './wording/bounds.js';
 export { engineChoiceWords } from './wording/engine.js';
 export { durbinHWords, nVRelation, fourDigits, type DurbinHFacts } from './wording/dynamic.js';
 export { powerNoteText } from './wording/power.js';

@@ -1,7 +1,7 @@
 /** `exact-dw table`: a whole table of exact Durbin-Watson bounds, computed on the spot. */
 import { DwError } from '../../errors.js';
 import { boundsTable } from '../../bounds/table.js';
-import { renderBoundsTable, type TableFormat } from '../../bounds/render.js';
+import { renderBoundsTable, type TableFormat } from '../../report/bounds-table.js';
 import { parseIntegerList, parseLevelList } from '../../bounds/ranges.js';
 import { MAX_BOUNDS_N } from '../../bounds/spectra.js';
 import { choiceOption, integerOption, methodOption, required } from '../args.js';

@@ -75,3 +75,25 @@ function distinct(xs: number[]): string[] {
   }
   return xs.map((x) => x.toFixed(6));
 }
+
+/**
+ * The conventions of a table of bounds, one sentence each, for the notes under a rendered table.
+ *
+ * @example
+ * ```ts
+ * tableConvention(true)[0]; // "k' is the number of regressors other than the intercept (...)"
+ * ```
+ */
+export function tableConvention(intercept: boolean): string[] {
+  return [
+    intercept
+      ? "k' is the number of regressors other than the intercept (the model has an intercept, so X has k' + 1 columns)."
+      : "k' is the number of regressors; the model has no intercept (X has k' columns; lower bound as in Farebrother 1980, upper bound from the interlacing theorem).",
+    'alpha is the one-sided level of the bounds test (Durbin and Watson 1951) against positive first-order autocorrelation: reject when d < d_L, do not reject when d > d_U, inconclusive in between.',
+    'For negative autocorrelation use 4 - d with the same bounds (reject when d > 4 - d_L); for a two-sided test at level 2 alpha use both sides.',
+    intercept
+      ? "Cells with n < k' + 3 are left out (fewer than 2 residual degrees of freedom)."
+      : "Cells with n < k' + 2 are left out (fewer than 2 residual degrees of freedom).",
+    'Exact quantiles of the bounding distributions (Durbin & Watson 1950), computed by exact-dw; not copied from a printed table.',
+  ];
+}

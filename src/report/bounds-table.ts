@@ -1,11 +1,12 @@
 /**
  * A computed table of bounds as text, Markdown, CSV or JSON. Every rendering states the
- * conventions (tableConvention in table.ts): k' excludes the intercept, alpha is the one-sided level
+ * conventions (tableConvention in wording/bounds.ts): k' excludes the intercept, alpha is the one-sided level
  * of the test against positive autocorrelation. Text and Markdown follow the printed tables' shape
  * (rows n, a d_L and a d_U column for each k'); CSV and JSON are long (one row per n, k', alpha).
  */
-import { pct } from './zone.js';
-import type { BoundsTable, BoundsTableCell } from './table.js';
+import { pct } from '../bounds/zone.js';
+import type { BoundsTable, BoundsTableCell } from '../bounds/table.js';
+import { tableConvention } from './wording/bounds.js';
 
 /** Output formats of a table. */
 export type TableFormat = 'text' | 'markdown' | 'csv' | 'json';
@@ -56,12 +57,12 @@ function json(table: BoundsTable, digits: number): string {
   const round = (x: number) => Number(x.toFixed(digits));
   return JSON.stringify({
     title: 'Durbin-Watson bounds d_L, d_U (exact quantiles of the bounding distributions)',
-    convention: table.convention,
+    convention: tableConvention(table.intercept),
     definitions: {
       kPrime: 'regressors other than the intercept',
       alpha: 'one-sided level of the test against positive autocorrelation',
       dL: 'reject no autocorrelation when d < dL, whatever the regressors',
-      dU: 'no evidence of positive autocorrelation when d > dU, whatever the regressors',
+      dU: 'the bounds test does not reject (against positive autocorrelation) when d > dU, whatever the regressors',
     },
     alternative: 'positive',
     intercept: table.intercept,
@@ -79,7 +80,7 @@ function markdown(table: BoundsTable, digits: number): string {
   const out: string[] = [];
   for (const a of table.alpha) {
     out.push(`## ${title(table, a)}`, '');
-    out.push(`Note: ${table.convention.join(' ')}`, '');
+    out.push(`Note: ${tableConvention(table.intercept).join(' ')}`, '');
     out.push(`| n | ${table.kPrime.map((k) => `k'=${k} d_L | k'=${k} d_U`).join(' | ')} |`);
     out.push(`|---:|${table.kPrime.map(() => '---:|---:').join('|')}|`);
     for (const n of table.n) {
@@ -100,7 +101,7 @@ function text(table: BoundsTable, digits: number): string {
   const out: string[] = [];
   for (const a of table.alpha) {
     out.push(title(table, a));
-    for (const line of table.convention) out.push(`  ${line}`);
+    for (const line of tableConvention(table.intercept)) out.push(`  ${line}`);
     out.push('');
     for (let g = 0; g < table.kPrime.length; g += TEXT_GROUP) {
       const ks = table.kPrime.slice(g, g + TEXT_GROUP);
