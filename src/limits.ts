@@ -17,10 +17,11 @@
  *     (O(n k log n)), then O(n k^2) per evaluation; memory about 8 n (k + 1) bytes for W and the
  *     eigenvalues plus the transform's work arrays.
  *
- * The values live in src/policy.ts (`POLICY.limits`); the names below are aliases. They were set from timings of one run on this project's development machine (a
- * shared 2-core container; see docs/errors-and-limits.md): the dense spectrum took 2.4 s at
- * n = 1000 and 23 s at n = 2000; one eigen-free probability (k = 3) took 0.26 s at n = 10^4, 8.4 s at
- * n = 10^5 and 66 s at n = 3 x 10^5. A limit is where one answer would take more than about 20 s.
+ * The values live in src/policy.ts (`POLICY.limits`); the names below are aliases. A limit is where
+ * one answer would take more than about 20 s on this project's development machine (a shared 2-core
+ * container) when it was set: the dense spectrum took 2.4 s at n = 1000 and 23 s at n = 2000; the
+ * eigen-free engine, before its sweep was tightened, 66 s at n = 3 x 10^5. Current timings are
+ * measured by `npm run bench` and `npm run bench:large` (docs/performance.md).
  */
 import { DwError } from './errors.js';
 import { POLICY } from './policy.js';

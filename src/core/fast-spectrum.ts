@@ -41,9 +41,8 @@ import { POLICY } from '../policy.js';
 const EPS = Number.EPSILON / 2; // unit roundoff 2^-53
 
 /**
- * Largest n for the structured path. Time grows as k n^2: measured on one core (Node 20), n = 1000
- * takes about 0.06 s, n = 5000 about 2 s, n = 10000 about 7 s (k = 5). Beyond, use the eigen-free
- * engine.
+ * Largest n for the structured path. Time grows as k n^2 (measured by `npm run bench`:
+ * docs/performance.md). Beyond, the eigen-free or DCT route answers.
  *
  * @example
  * ```ts
@@ -54,7 +53,8 @@ export const FAST_SPECTRUM_MAX_N = POLICY.limits.STRUCTURED_SPECTRUM_MAX_N;
 
 /**
  * Largest n for the dense fallback taken by band matrices that are not difference operators
- * (time O(n^3): about 2 s at n = 1000, 15 s at n = 2000; memory 8 n^2 bytes).
+ * (time O(n^3), about 2.4 s at n = 1000 and 23 s at n = 2000 when the limit was set, as in
+ * docs/errors-and-limits.md; memory 8 n^2 bytes).
  *
  * @example
  * ```ts
