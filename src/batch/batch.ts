@@ -15,7 +15,7 @@ import { adjustPValues, ADJUSTMENTS, type Adjustment } from './adjust.js';
 import { DesignCache } from './shared-design.js';
 import { seriesAnswer } from './group-test.js';
 import type { BatchNote, DwWarning } from '../inference/warnings.js';
-import { parseTimeLabels, type TimeFrequency } from '../data/time-index.js';
+import { parseTimeLabels, readsAsTimeIndex, TIME_NAMES, type TimeFrequency } from '../data/time-index.js';
 
 /** A cell of a column given to {@link exactDwBatch} as values (null, undefined, '' or NaN are missing). */
 export type BatchCell = number | string | null | undefined;
@@ -37,6 +37,14 @@ export interface BatchInput {
    * quarters (2015Q1, 2015-Q1), months (2015-07) or ISO dates, as in src/data/time-index.ts.
    */
   time?: string;
+  /**
+   * `false`: no time index even when a column looks like one (the rows of each group are
+   * consecutive periods). Otherwise, without `time`, the time-index rule of src/data/time-index.ts
+   * applies group by group: the first column (not `by`, `y` or a listed regressor) whose labels
+   * increase within every group and that has a time-like name or holds quarter, month or date
+   * labels is the time index, and the result says so (`BATCH_TIME_DETECTED`).
+   */
+  timeColumn?: false;
   /** Frequency of ISO-date labels, instead of the one inferred for each group. */
   frequency?: TimeFrequency;
   /** Adjust the p-values over the family of groups tested (default none). */
@@ -204,7 +212,11 @@ export function groupRows(table: DataTable, by: string): BatchGrouping {
 }
 
 /** The checked column choice of a batch. */
-export interface BatchColumns { by: string; y: string; x: string[]; time: string | null }
+export interface BatchColumns {
+  by: string; y: string; x: string[]; time: string | null;
+  /** The time column was chosen by the time-index rule, not named. */
+  timeDetected?: boolean;
+}
 
 /**
  * Check the named columns against the table (file-level errors: a column that does not exist, a
@@ -215,7 +227,7 @@ export interface BatchColumns { by: string; y: string; x: string[]; time: string
  * batchColumns(parseCsv('shop,week,y,price\na,1,2,3\n'), { by: 'shop', y: 'y', time: 'week' }).x; // ['price']
  * ```
  */
-export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 'x' | 'time'>): BatchColumns {
+export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 'x' | 'time' | 'timeColumn'>): BatchColumns {
   for (const [role, name] of [['grouping', input.by], ['y', input.y], ['time', input.time]] as const) {
     if (name !== undefined) {
       if (typeof name !== 'string' || name === '') throw new DwError('OPTION_VALUE', `The ${role} column needs a name.`, 'Name a column of the data.');
@@ -226,7 +238,9 @@ export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y
   if (input.time !== undefined && (input.time === input.y || input.time === input.by)) {
     throw new DwError('OPTION_CONFLICT', `'${input.time}' is the time column and cannot also be ${input.time === input.y ? 'y' : 'the grouping column'}.`, 'Name separate columns.', { column: input.time });
   }
-  const skip = new Set([input.by, input.y, ...(input.time !== undefined ? [input.time] : [])]);
+  const detected = input.time === undefined && input.timeColumn !== false ? detectGroupTime(table, input) : null;
+  const time = input.time ?? detected ?? undefined;
+  const skip = new Set([input.by, input.y, ...(time !== undefined ? [time] : [])]);
   let x: string[];
   if (input.x !== undefined) {
     const seen = new Set<string>();
@@ -240,7 +254,34 @@ export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y
   } else {
     x = table.headers.filter((h) => !skip.has(h) && !isTextColumn(table, h));
   }
-  return { by: input.by, y: input.y, x, time: input.time ?? null };
+  return { by: input.by, y: input.y, x, time: time ?? null, ...(detected !== null ? { timeDetected: true } : {}) };
+}
+
+/**
+ * The time-index rule of src/data/time-index.ts, group by group: the first column, in file order,
+ * that is not the grouping column, y or a listed regressor, whose labels increase strictly within
+ * every group of two or more rows, and that has a time-like name or holds quarter, month or date
+ * labels. Null when there is none.
+ */
+function detectGroupTime(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 'x'>): string | null {
+  const listed = new Set(input.x ?? []);
+  const { rows } = groupRows(table, input.by);
+  for (const h of table.headers) {
+    if (h === input.by || h === input.y || listed.has(h)) continue;
+    const j = columnIndex(table, h);
+    let ok = true;
+    let calendar = false;
+    let seen = false;
+    for (const g of rows) {
+      if (g.length < 2) continue;
+      const format = readsAsTimeIndex(Array.from(g, (r) => table.rows[r][j]));
+      if (format === null) { ok = false; break; }
+      seen = true;
+      if (format !== 'integer') calendar = true;
+    }
+    if (ok && seen && (calendar || TIME_NAMES.includes(h.trim().toLowerCase()))) return h;
+  }
+  return null;
 }
 
 function groupError(err: unknown): BatchGroupError {
@@ -372,6 +413,7 @@ export function finishBatch(
   const notValid = groups.filter((g) => g.decision === 'not-valid').length;
   if (input.adjust !== undefined && notValid > 0) notes.push({ code: 'BATCH_NOT_VALID_EXCLUDED', excluded: notValid });
   if (failedCount > 0) notes.push({ code: 'BATCH_GROUPS_FAILED', failed: failedCount, groups: groups.length });
+  if (columns.timeDetected && columns.time !== null) notes.push({ code: 'BATCH_TIME_DETECTED', column: columns.time });
   return {
     by: columns.by,
     y: columns.y,

@@ -37,7 +37,9 @@ export type PanelNote =
 export type BatchNote =
   | { code: 'BATCH_GROUPS_FAILED'; failed: number; groups: number }
   | { code: 'BATCH_NOT_VALID_EXCLUDED'; excluded: number }
-  | { code: 'BATCH_ADJUSTED'; method: 'holm' | 'bh'; family: number };
+  | { code: 'BATCH_ADJUSTED'; method: 'holm' | 'bh'; family: number }
+  /** No time column was named; this column was taken as the time index of every group by the time-index rule. */
+  | { code: 'BATCH_TIME_DETECTED'; column: string };
 
 /** The codes of {@link DwWarning}. */
 export type DwWarningCode = DwWarning['code'];

@@ -136,6 +136,8 @@ export function noteText(note: Note): string {
       return `${note.failed} of ${note.groups} groups could not be tested; each has its error code and message, and the others are unaffected.`;
     case 'BATCH_NOT_VALID_EXCLUDED':
       return `${note.excluded} group${note.excluded === 1 ? ' has' : 's have'} a lagged dependent variable among the regressors, so d is not a valid test there; ${note.excluded === 1 ? 'it is' : 'they are'} left out of the adjusted family.`;
+    case 'BATCH_TIME_DETECTED':
+      return `No time column was named, so '${note.column}' was taken as the time index of every group by the time-index rule (it is not a regressor); d is taken only between observations of a group exactly the lag apart in it. Name the time column, or turn the rule off, to choose otherwise.`;
     case 'BATCH_ADJUSTED':
       return `p-values adjusted over the ${note.family} groups tested by ${ADJUSTMENT_NAMES[note.method]}; decisions use the adjusted p-values.`;
   }

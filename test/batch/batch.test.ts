@@ -4,7 +4,7 @@
  * exact test of that group's rows (internal consistency: sharing a null distribution must not
  * change any number).
  */
-import { warningText } from '../../src/report/wording.js';
+import { noteText, warningText } from '../../src/report/wording.js';
 import { describe, expect, it } from 'vitest';
 import { adjustPValues } from '../../src/batch/adjust.js';
 import { exactDwBatch, groupRows } from '../../src/batch/batch.js';
@@ -160,9 +160,32 @@ describe('exactDwBatch', () => {
     expect(byQuarter.groups.map((r) => r.error)).toEqual([null, null]);
     expect(byQuarter.groups.map((r) => r.d)).toEqual(byInt.groups.map((r) => r.d));
     expect(byQuarter.groups.map((r) => r.pValue)).toEqual(byInt.groups.map((r) => r.pValue));
-    // and the gaps matter: b without its times is another operator
-    const noTime = exactDwBatch({ table, by: 'g', y: 'y', x: ['x', 't'].slice(0, 1) });
+    // without a named time column the time-index rule takes the quarter labels, group by group
+    // (the same rule as the single test), and says so
+    const ruled = exactDwBatch({ table, by: 'g', y: 'y', x: ['x'] });
+    expect(ruled.groups.map((r) => r.d)).toEqual(byQuarter.groups.map((r) => r.d));
+    expect(ruled.notes).toContainEqual({ code: 'BATCH_TIME_DETECTED', column: 'q' });
+    expect(noteText(ruled.notes.find((n) => n.code === 'BATCH_TIME_DETECTED')!)).toMatch(/'q' was taken as the time index/);
+    // and the gaps matter: b without its times (the rule turned off) is another operator
+    const noTime = exactDwBatch({ table, by: 'g', y: 'y', x: ['x'], timeColumn: false });
     expect(noTime.groups[1].d).not.toBe(byQuarter.groups[1].d);
+    expect(noTime.notes.map((n) => n.code)).not.toContain('BATCH_TIME_DETECTED');
+  });
+
+  it('a column named week is the time index of each group when no time column is named (the time-index rule), not a regressor', () => {
+    const rows = ['shop,week,sales,price'];
+    let seed = 11;
+    const rnd = () => { seed = (seed * 16807) % 2147483647; return seed / 2147483647 - 0.5; };
+    for (const g of ['a', 'b']) for (let w = 1; w <= 20; w++) if (!(g === 'a' && w === 9)) rows.push(`${g},${w},${rnd().toFixed(5)},${rnd().toFixed(5)}`);
+    const table = parseCsv(rows.join('\n'));
+    const named = exactDwBatch({ table, by: 'shop', y: 'sales', time: 'week' });
+    const ruled = exactDwBatch({ table, by: 'shop', y: 'sales' });
+    expect(ruled.x).toEqual(['price']);
+    expect(ruled.time).toBe('week');
+    expect(ruled.groups.map((r) => [r.k, r.d, r.pValue])).toEqual(named.groups.map((r) => [r.k, r.d, r.pValue]));
+    const off = exactDwBatch({ table, by: 'shop', y: 'sales', timeColumn: false });
+    expect(off.x).toEqual(['week', 'price']);
+    expect(off.groups[0].k).toBe(3);
   });
 
   it('Holm-adjusted decisions use the adjusted p-values over the groups tested', () => {

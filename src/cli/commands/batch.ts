@@ -52,7 +52,8 @@ export const batchCommand: Command = {
     'number). --adjust holm controls the family-wise error rate (Holm 1979), --adjust bh the false',
     'discovery rate (Benjamini-Hochberg 1995); decisions then use the adjusted p-values. A group that',
     'cannot be tested gets its error code in the table and the others go on. --time takes whole',
-    'numbers, quarters (2015Q1), months (2015-07) or ISO dates, increasing within each group; gaps are honoured.',
+    'numbers, quarters (2015Q1), months (2015-07) or ISO dates, increasing within each group; gaps are honoured. Without --time',
+    'the time-index rule of the test command applies group by group (--no-time turns it off).',
   ].join('\n'),
   positionals: 1,
   options: {
@@ -91,11 +92,14 @@ export const batchCommand: Command = {
     const workers = values.workers === undefined ? 'auto' : integerOption(values, 'workers') as number;
     if (workers !== 'auto' && !(workers >= 1)) throw new DwError('OPTION_VALUE', `--workers must be at least 1 (got ${workers}).`, 'Give the number of threads, e.g. --workers 2.');
     const time = typeof values.time === 'string' ? values.time : undefined;
+    if (values['no-time'] === true && time !== undefined) {
+      throw new DwError('OPTION_CONFLICT', '--time names a time column and --no-time asks for none.', 'Give one of them.');
+    }
     const path = positionals[0];
     const text = io.readText(path);
     const progress = progressLine(io);
     const batch = await runBatch(text, csvOptionsOf(values, path), {
-      by, y, x: listOption(values, 'x'), time, frequency: frequencyOption(values), adjust, alternative, alpha,
+      by, y, x: listOption(values, 'x'), time, timeColumn: values['no-time'] === true ? false : undefined, frequency: frequencyOption(values), adjust, alternative, alpha,
       intercept: !values['no-intercept'], lag, method: methodOption(values), critical: values.critical === true,
     }, workers, progress.update);
     progress.end();
