@@ -86,6 +86,9 @@ describe('pooled panel (reference: numpy dense spectrum of M A M, mpmath Imhof)'
     expect(() => preparePanel({ entity: ['a', '', 'b', 'b'], time: [1, 2, 1, 2] }, {}, 4, 1)).toThrowError(expect.objectContaining({ code: 'CELL_EMPTY' }));
     expect(() => exactDwTest({ ...input, panel: panelOf(false), times: rows.map((r) => r.time) })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT' }));
     expect(() => exactDwTest({ ...input, panel: panelOf(false), power: { rho: [0.5] } })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT' }));
+    // time labels beside the panel's own times, and dropping rows (a pooled panel needs every row)
+    expect(() => exactDwTest({ ...input, panel: panelOf(false), time: { labels: rows.map((r) => String(r.time)) } })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT' }));
+    expect(() => exactDwTest({ ...input, panel: panelOf(false), dropMissing: true })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT', message: expect.stringMatching(/pooled panel/) }));
   });
 
   it('a regressor constant within each entity is absorbed by the entity effects (rank-deficient)', () => {
