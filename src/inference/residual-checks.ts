@@ -77,17 +77,23 @@ export function timeLikeColumn(x: Float64Array, n: number, names: string[]): str
 }
 
 /**
- * sum e_t e_{t-1} / sum e_t^2 over the pairs of observations one period apart (gaps honoured).
+ * sum e_t e_{t-1} / sum e_t^2 over the pairs of observations one period apart (gaps honoured);
+ * null when no two observations are one period apart (e.g. quarterly dates read as monthly).
  *
  * @example
  * ```ts
  * firstOrderAutocorrelation(Float64Array.of(1, -1, 1, -1)); // -0.75
  * ```
  */
-export function firstOrderAutocorrelation(e: Float64Array, times?: ArrayLike<number>): number {
-  const pairs = differencePairs(e.length, 1, times);
-  let num = 0, den = 0;
-  for (let i = 0; i < pairs.from.length; i++) num += e[pairs.to[i]] * e[pairs.from[i]];
+export function firstOrderAutocorrelation(e: Float64Array, times?: ArrayLike<number>): number | null {
+  // the pairs one period apart (as differencePairs builds them for lag 1); none: no estimate
+  let num = 0, den = 0, pairs = 0;
+  for (let t = 1; t < e.length; t++) {
+    if (times !== undefined && times[t] - times[t - 1] !== 1) continue;
+    num += e[t] * e[t - 1];
+    pairs++;
+  }
+  if (pairs === 0) return null;
   for (let t = 0; t < e.length; t++) den += e[t] * e[t];
   return den > 0 ? num / den : 0;
 }

@@ -114,8 +114,16 @@ export function runSeries(input: DwTestInput, reuse: DesignReuse | undefined, pa
       dynamic = check;
       warnings.push(...check.notes);
     } else {
-      // the same Breusch-Godfrey test as for a dynamic model (src/dynamic/serial-tests.ts), next to d
-      bg = breuschGodfrey(problem.factored, residuals, input.bgOrder ?? 1, times);
+      // the same Breusch-Godfrey test as for a dynamic model (src/dynamic/serial-tests.ts), next to d;
+      // with no two observations j periods apart (j <= p) its auxiliary regression has no lagged
+      // residual there, and the test is not defined: a note says so, and d's test goes on
+      const order = input.bgOrder ?? 1;
+      try {
+        bg = breuschGodfrey(problem.factored, residuals, order, times);
+      } catch (err) {
+        if (!(err instanceof DwError && err.code === 'TIME_INVALID' && times !== undefined)) throw err;
+        warnings.push({ code: 'BREUSCH_GODFREY_UNDEFINED', order });
+      }
     }
   } else if (typeof input.laggedDependent === 'string') {
     throw new DwError('OPTION_CONFLICT', "Durbin's h and the Breusch-Godfrey test refit the model, so they need y, not residuals.",

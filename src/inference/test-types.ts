@@ -169,7 +169,7 @@ export interface DwTestResult extends DwPValues {
    * First-order autocorrelation of the residuals, sum e_t e_{t-1} / sum e_t^2 over the pairs one
    * period apart (gaps honoured); 1 - d/2 approximates it at lag 1 (common practice).
    */
-  rhoHat: number;
+  rhoHat: number | null;
   /**
    * Breusch-Godfrey LM test of order p (asymptotic) for a static model with y given; for a dynamic
    * model it is in `dynamic`, and null here.

@@ -24,6 +24,8 @@ export type DwWarning =
   | { code: 'BOUNDS_LAG_OR_GAPS'; lag: number; gaps: boolean }
   /** A lagged dependent variable: d is not a valid test. */
   | { code: 'D_NOT_VALID_LAGGED_DEPENDENT'; column: string; how: 'declared' | 'detected'; hDefined: boolean; bgOrder: number }
+  /** No two observations are j periods apart for some j up to the order: Breusch-Godfrey is not defined. */
+  | { code: 'BREUSCH_GODFREY_UNDEFINED'; order: number }
   /** The declared lagged dependent column is not y lagged one period in the data. */
   | { code: 'LAGGED_DEPENDENT_MISMATCH'; column: string }
   | PanelNote;

@@ -52,7 +52,7 @@ export function serialSection(r: DwTestResult): ReportSection {
     id: 'serial', heading: `Breusch${sym('ndash')}Godfrey test of order ${bg.order} (asymptotic)`, blocks: [
       { kind: 'table', head: ['Test', 'Statistic', `${sym('p')} (asymptotic)`, 'Reference'], align: ['l', 'r', 'r', 'l'], rows },
       {
-        kind: 'fields', rows: [[`First-order autocorrelation of the residuals, ${sym('rhoHat')}`, fixed(r.rhoHat, STAT_DECIMALS)]],
+        kind: 'fields', rows: [[`First-order autocorrelation of the residuals, ${sym('rhoHat')}`, r.rhoHat !== null ? fixed(r.rhoHat, STAT_DECIMALS) : 'not defined: no two observations are one period apart']],
       },
       para(`The Breusch${sym('ndash')}Godfrey test ${cite('breusch-1978', 'godfrey-1978')} regresses the residuals on the regressors and ${bg.order === 1 ? 'the residual lagged once' : `the residuals lagged 1 to ${bg.order} periods`} ` +
         `(zero before the sample and across gaps); it is asymptotic and, unlike ${sym('d')}, also aimed at autocorrelation up to order ${bg.order}. At ${sym('alpha')} = ${level(r.alpha)} it ${verdict} the null hypothesis of no autocorrelation. ` +

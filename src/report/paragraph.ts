@@ -143,7 +143,8 @@ export function paperParagraph(r: DwTestResult, format: InlineFormat = 'text'): 
   const bg = dIsValid(r) ? r.breuschGodfrey : null;
   if (bg) {
     sentences.push(`The asymptotic Breusch${sym('ndash')}Godfrey test of order ${bg.order} ${cite('breusch-1978', 'godfrey-1978')} gives LM = ${fixed(bg.lm, 2)} ` +
-      `(${sym('chi2')} ${pPhrase(bg.pChiSquare, { alpha: r.alpha })}), and the first-order autocorrelation of the residuals is ${sym('rhoHat')} = ${fixed(r.rhoHat, 2)}.`);
+      `(${sym('chi2')} ${pPhrase(bg.pChiSquare, { alpha: r.alpha })})` +
+      (r.rhoHat !== null ? `, and the first-order autocorrelation of the residuals is ${sym('rhoHat')} = ${fixed(r.rhoHat, 2)}.` : '.'));
   }
   sentences.push(`The computations used exact-dw ${VERSION} ${cite('exact-dw')}.`);
   return inline(sentences.join(' '), format) + '\n';

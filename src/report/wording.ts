@@ -65,6 +65,8 @@ export function warningText(w: DwWarning): string {
         `Use Durbin's ${sym('h')}${w.hDefined ? '' : ' (undefined for these data)'} or the Breusch${sym('ndash')}Godfrey test of order ${w.bgOrder} (both asymptotic).`;
     case 'LAGGED_DEPENDENT_MISMATCH':
       return `The declared column ${code(w.column)} is not equal to y lagged one period in these data; the checks treat it as the lagged dependent variable all the same.`;
+    case 'BREUSCH_GODFREY_UNDEFINED':
+      return `The Breusch${sym('ndash')}Godfrey test of order ${w.order} is not defined here: for some lag up to ${w.order} no two observations are that many periods apart in the time index, so the auxiliary regression would have a lagged residual that is zero throughout. ${sym('d')} and its exact ${sym('p')}-value are not affected.`;
     case 'PANEL_BOUNDS_NOT_APPLICABLE':
     case 'ENTITY_EFFECTS_BOUNDS_NOT_APPLICABLE':
       return noteText(w);

@@ -28,6 +28,7 @@ export const el = {
   intercept: byId<HTMLInputElement>('intercept'),
   time: byId<HTMLSelectElement>('time'),
   dropMissing: byId<HTMLInputElement>('drop-missing'),
+  frequency: byId<HTMLSelectElement>('frequency'),
   lag: byId<HTMLInputElement>('lag'),
   alpha: byId<HTMLInputElement>('alpha'),
   rho: byId<HTMLInputElement>('rho'),

@@ -4,6 +4,7 @@
  * the choices read back as plain data, or the first thing wrong with them in words, and sent to
  * the worker.
  */
+import type { TimeFrequency } from '../data/time-index.js';
 import type { Alternative } from '../inference/dw-test.js';
 import type { MethodChoice } from '../core/types.js';
 import { capabilities } from './adapter.js';
@@ -89,6 +90,7 @@ function readModel(): ModelChoice | PlainError {
     x: xInputs().filter((x) => x.checked).map((x) => x.value),
     time: el.time.value === '' ? null : el.time.value,
     dropMissing: el.dropMissing.checked,
+    frequency: el.frequency.value === '' ? null : el.frequency.value as TimeFrequency,
     lag,
     intercept: el.intercept.checked,
     alternative,

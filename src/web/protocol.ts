@@ -2,6 +2,7 @@
  * The messages between the page (main.ts) and its computing worker (worker.ts). Only plain data
  * crosses: the test result is the library's own DwTestResult, structured-cloned as it is.
  */
+import type { TimeFrequency } from '../data/time-index.js';
 import type { Alternative, DwTestResult } from '../inference/dw-test.js';
 import type { MethodChoice } from '../core/types.js';
 import type { ReportExtras } from './adapter.js';
@@ -31,6 +32,8 @@ export interface ModelChoice {
   time: string | null;
   /** Drop rows with a missing value in a used column (they become gaps). */
   dropMissing: boolean;
+  /** Frequency of ISO-date time labels instead of the inferred one, or null (inferred). */
+  frequency: TimeFrequency | null;
   lag: number;
   intercept: boolean;
   alternative: Alternative;

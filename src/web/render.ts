@@ -231,7 +231,7 @@ function serialPanel(r: DwTestResult): HTMLElement | null {
     dl([
       pair('LM statistic', formatStatistic(bg.lm, 3), 'bg-lm', `(chi-square, ${bg.order} df)`),
       pair('p-value', formatProbability(bg.pChiSquare, { alpha: r.alpha }), 'bg-p'),
-      pair(h('span', {}, 'residual autocorrelation \u03c1\u0302'), formatStatistic(r.rhoHat, 3), 'rho-hat'),
+      pair(h('span', {}, 'residual autocorrelation \u03c1\u0302'), r.rhoHat !== null ? formatStatistic(r.rhoHat, 3) : 'not defined (no two observations one period apart)', 'rho-hat'),
     ]),
     h('p', { class: 'note' }, `At level ${formatLevel(r.alpha)} it ${bg.pChiSquare <= r.alpha ? 'rejects' : 'does not reject'} the null hypothesis of no autocorrelation up to order ${bg.order}.`));
 }

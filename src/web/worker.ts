@@ -60,11 +60,15 @@ function compute(id: number, data: DataSource, model: ModelChoice): void {
   // the library's time-index rule decides what "detected" means, as on the command line
   const ruled = guessColumns(table, summarizeColumns(table)).time;
   const time = model.time === null ? undefined
-    : { labels: textColumn(table, model.time), name: model.time, detected: model.time === ruled, source: data.source };
+    : {
+      labels: textColumn(table, model.time), name: model.time, detected: model.time === ruled, source: data.source,
+      ...(model.frequency !== null ? { frequency: model.frequency } : {}),
+    };
   const options: Record<string, string | boolean | string[]> = {
     y: model.y, x: model.x, lag: String(model.lag), alternative: model.alternative, alpha: String(model.alpha), method: model.method,
   };
   if (model.time !== null) options.time = model.time;
+  if (model.time !== null && model.frequency !== null) options.frequency = model.frequency;
   if (!model.intercept) options['no-intercept'] = true;
   if (model.dropMissing) options['drop-missing'] = true;
   const input: DwTestInput = {

@@ -109,6 +109,27 @@ describe('time labels become integer periods', () => {
   });
 });
 
+describe('a time index with no two observations one period apart', () => {
+  it('quarter-end dates read as monthly, lag 3: d is the quarterly d; rho-hat and Breusch-Godfrey are undefined and said so, not an error', () => {
+    const dates = ['2019-03-31', '2019-06-30', '2019-09-30', '2019-12-31', '2020-03-31', '2020-06-30', '2020-12-31',
+      '2021-03-31', '2021-06-30', '2021-09-30', '2021-12-31', '2022-03-31', '2022-06-30', '2022-09-30'];
+    const y = dates.map((_, i) => 5 + Math.cos(0.9 * i) + 0.1 * i);
+    const x = { price: dates.map((_, i) => 1 + Math.sin(1.7 * i)) };
+    const monthly = exactDwTest({ y, x, time: { labels: dates, frequency: 'monthly' }, lag: 3 });
+    const quarterly = exactDwTest({ y, x, time: { labels: dates } });
+    expect(quarterly.timeColumn?.frequency).toBe('quarterly');
+    // the same pairs (three months apart = consecutive quarters), so the same statistic (definition of d)
+    expect(monthly.d).toBeCloseTo(quarterly.d, 14);
+    expect(monthly.rhoHat).toBeNull();
+    expect(monthly.breuschGodfrey).toBeNull();
+    expect(monthly.warnings).toContainEqual({ code: 'BREUSCH_GODFREY_UNDEFINED', order: 1 });
+    expect(renderText(monthly)).toMatch(/Breusch-Godfrey test of order 1 is not defined here/);
+    // and the quarterly reading has both
+    expect(quarterly.rhoHat).not.toBeNull();
+    expect(quarterly.breuschGodfrey?.order).toBe(1);
+  });
+});
+
 describe('gaps and lag 4 on quarter labels, months and dates', () => {
   const g = seededNormal(41);
   const quarters: string[] = [];

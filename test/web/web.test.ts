@@ -297,6 +297,33 @@ describe('the offline page in headless Chromium', () => {
     await page.close();
   });
 
+  it('dates with a frequency chosen on the page: the same numbers as the library with that frequency', async () => {
+    // quarter-end dates with one quarter missing: inferred quarterly; chosen here as monthly, with lag 3
+    const dates = ['2019-03-31', '2019-06-30', '2019-09-30', '2019-12-31', '2020-03-31', '2020-06-30', '2020-12-31',
+      '2021-03-31', '2021-06-30', '2021-09-30', '2021-12-31', '2022-03-31', '2022-06-30', '2022-09-30'];
+    const csv = 'date,sales,price\n' + dates.map((d, i) => `${d},${(5 + Math.cos(0.9 * i) + 0.1 * i).toFixed(3)},${(1 + Math.sin(1.7 * i)).toFixed(3)}`).join('\n') + '\n';
+    const page = await open();
+    await page.setInputFiles('#file', { name: 'dates.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+    await page.locator('#model-step').waitFor({ state: 'visible' });
+    expect(await page.locator('#time').inputValue()).toBe('date');
+    await page.fill('#lag', '3');
+    await page.selectOption('#frequency', 'monthly');
+    await compute(page);
+    expect(await page.locator('#result-error').isHidden()).toBe(true);
+    expect(await field(page, 'time-index')).toMatch(/monthly, as given/);
+    const table = parseCsv(csv);
+    const y = numericColumn(table, 'sales');
+    const x = { price: numericColumn(table, 'price') };
+    const lib = exactDwTest({ y, x, time: { labels: dates, name: 'date', frequency: 'monthly' }, lag: 3 });
+    const inferred = exactDwTest({ y, x, time: { labels: dates, name: 'date' } });
+    expect(inferred.timeColumn?.frequency).toBe('quarterly');
+    // three months apart at lag 3 are the consecutive quarters: the same pairs, the same d
+    expect(lib.d).toBeCloseTo(inferred.d, 14);
+    expectShown(await field(page, 'd'), lib.d);
+    expectShown(await field(page, 'p-value'), lib.pValue);
+    await page.close();
+  });
+
   it('with a lagged dependent variable the page shows no p-value, critical value or bounds of d', async () => {
     const n = 20;
     const y: number[] = [];
