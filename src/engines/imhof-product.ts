@@ -46,14 +46,10 @@ const LOG_BIG = 200 * Math.LN2;
  * ```
  */
 export function productSpectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): CharacteristicForm {
-  const w = spectralWeights(nu, c, sign);
-  const { lambda } = w;
+  const { lambda, summary } = spectralWeights(nu, c, sign);
   const m = lambda.length;
   return {
-    m: w.m,
-    sumLambda: w.sumLambda,
-    sumLogAbsLambda: w.sumLogAbsLambda,
-    maxAbsLambda: w.maxAbsLambda,
+    ...summary,
     evaluate(u: number, out: Float64Array): void {
       let re = 1;
       let im = 0;
@@ -135,12 +131,11 @@ export function imhofProductWithDensity(nu: Float64Array, c: number, tail: Tail,
   const n = nu.length;
   if (!(c > nu[0] && c < nu[n - 1])) throw new RangeError('imhofProductWithDensity: c must lie strictly inside the support');
   const tol = options.tolerance ?? 1e-11;
-  const w = spectralWeights(nu, c, tail === 'lower' ? 1 : -1);
+  const { lambda: l, summary: w } = spectralWeights(nu, c, tail === 'lower' ? 1 : -1);
   const m = w.m;
   const logU = (2 / m) * (-Math.log((Math.PI * m * tol) / 8) - 0.5 * w.sumLogAbsLambda);
   const upper = Math.exp(logU);
   const truncation = 1 / (Math.PI * (m / 2) * Math.exp((m / 2) * logU + 0.5 * w.sumLogAbsLambda));
-  const l = w.lambda;
   const half = 0.5 * w.sumLambda;
   let g1 = 0;
   let g2 = 0;

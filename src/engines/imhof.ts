@@ -96,11 +96,13 @@ function geometricBreaks(upper: number, maxAbsLambda: number): number[] {
  *
  * @example
  * ```ts
- * spectralWeights(Float64Array.from([0.5, 1, 2, 3]), 1.5).maxAbsLambda; // 1.5
+ * spectralWeights(Float64Array.from([0.5, 1, 2, 3]), 1.5).summary.maxAbsLambda; // 1.5
  * ```
  */
 export function spectralWeights(nu: Float64Array, c: number, sign: 1 | -1 = 1): {
-  lambda: Float64Array; m: number; sumLambda: number; sumLogAbsLambda: number; maxAbsLambda: number;
+  lambda: Float64Array;
+  /** The summaries of a characteristic form (everything but `evaluate`). */
+  summary: { m: number; sumLambda: number; sumLogAbsLambda: number; maxAbsLambda: number };
 } {
   const m = nu.length;
   const lambda = new Float64Array(m);
@@ -117,7 +119,7 @@ export function spectralWeights(nu: Float64Array, c: number, sign: 1 | -1 = 1): 
     const a = Math.abs(lambda[j]);
     if (a > 1e-13 * maxAbs) { count++; sumLog += Math.log(a); }
   }
-  return { lambda, m: count, sumLambda: sum, sumLogAbsLambda: sumLog, maxAbsLambda: maxAbs };
+  return { lambda, summary: { m: count, sumLambda: sum, sumLogAbsLambda: sumLog, maxAbsLambda: maxAbs } };
 }
 
 /**
@@ -133,14 +135,10 @@ export function spectralWeights(nu: Float64Array, c: number, sign: 1 | -1 = 1): 
  * ```
  */
 export function spectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): CharacteristicForm {
-  const w = spectralWeights(nu, c, sign);
-  const { lambda } = w;
+  const { lambda, summary } = spectralWeights(nu, c, sign);
   const m = lambda.length;
   return {
-    m: w.m,
-    sumLambda: w.sumLambda,
-    sumLogAbsLambda: w.sumLogAbsLambda,
-    maxAbsLambda: w.maxAbsLambda,
+    ...summary,
     evaluate(u: number, out: Float64Array): void {
       let theta = 0;
       let logRho = 0;

@@ -101,3 +101,14 @@ export function mlMatrixProjection(a: BandMatrix, x: number[][], seed: number): 
 export function referenceJson(name: string): unknown {
   return JSON.parse(readFileSync(new URL(`../ref/${name}`, import.meta.url), 'utf8'));
 }
+
+/** The regressor t = 1, ..., n (a linear trend). */
+export const trend = (n: number): number[] => Array.from({ length: n }, (_, i) => i + 1);
+
+/** p seeded standard normal regressors x1..xp of length n (invented designs for tests only). */
+export function randomColumns(seed: number, n: number, p: number): Record<string, number[]> {
+  const g = seededNormal(seed);
+  const out: Record<string, number[]> = {};
+  for (let j = 0; j < p; j++) out[`x${j + 1}`] = Array.from({ length: n }, () => g());
+  return out;
+}

@@ -6,11 +6,7 @@
  * null distribution (power at rho = 0 is alpha), and a seeded simulation of stationary AR(1) errors.
  */
 import { describe, expect, it } from 'vitest';
-import { powerNoteText } from '../../src/report/wording.js';
-import { inline } from '../../src/report/format.js';
-import type { PowerNote } from '../../src/power/exact-power.js';
-
-const notesText = (notes: PowerNote[]) => notes.map((n) => inline(powerNoteText(n), 'text')).join(' ');
+import { notesText } from '../helpers/power.js';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { CholeskyDecomposition } from 'ml-matrix';
@@ -25,15 +21,9 @@ import { checkPowerSize, POWER_MAX_N } from '../../src/limits.js';
 import { cli, scratch } from '../helpers/cli.js';
 import { EigenvalueDecomposition, Matrix, seededNormal, seededRandom, solve } from '../helpers/reference.js';
 import { referenceJson } from '../helpers/reference.js';
+import { randomColumns, trend } from '../helpers/reference.js';
 
-const trend = (n: number) => Array.from({ length: n }, (_, i) => i + 1);
 
-function randomColumns(seed: number, n: number, p: number): Record<string, number[]> {
-  const g = seededNormal(seed);
-  const out: Record<string, number[]> = {};
-  for (let j = 0; j < p; j++) out[`x${j + 1}`] = Array.from({ length: n }, () => g());
-  return out;
-}
 
 /** Increasing integer times with gaps of 1 to 4 periods (seeded). */
 function gappedTimes(seed: number, n: number): number[] {

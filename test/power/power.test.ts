@@ -5,11 +5,7 @@
  * reference JSON (test/ref/), and seeded simulation of AR(1) errors with a stationary start.
  */
 import { describe, expect, it } from 'vitest';
-import { powerNoteText } from '../../src/report/wording.js';
-import { inline } from '../../src/report/format.js';
-import type { PowerNote } from '../../src/power/exact-power.js';
-
-const notesText = (notes: PowerNote[]) => notes.map((n) => inline(powerNoteText(n), 'text')).join(' ');
+import { notesText } from '../helpers/power.js';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { bandToDense, durbinWatson } from '../../src/core/difference.js';
@@ -26,15 +22,9 @@ import { cli, scratch } from '../helpers/cli.js';
 import { CholeskyDecomposition } from 'ml-matrix';
 import { EigenvalueDecomposition, Matrix, seededNormal, solve } from '../helpers/reference.js';
 import { referenceJson } from '../helpers/reference.js';
+import { randomColumns, trend } from '../helpers/reference.js';
 
-const trend = (n: number) => Array.from({ length: n }, (_, i) => i + 1);
 
-function randomColumns(seed: number, n: number, p: number): Record<string, number[]> {
-  const g = seededNormal(seed);
-  const out: Record<string, number[]> = {};
-  for (let j = 0; j < p; j++) out[`x${j + 1}`] = Array.from({ length: n }, () => g());
-  return out;
-}
 
 /** Run one command object as runCli would (exit 2 and one line on a DwError), without the registry. */
 async function runCommand(argv: string[]): Promise<{ status: number; out: string; err: string }> {
