@@ -7,7 +7,7 @@
  */
 import { DwNullDistribution } from '../distribution/null-distribution.js';
 import { buildDesign, type RegressorInput } from '../model/design.js';
-import { prepareProblem, type DwProblem, type ProblemOptions } from '../problem/problem.js';
+import { differenceOperator, prepareDesign, type DifferenceOperator, type DwProblem, type ProblemOptions } from '../problem/problem.js';
 import type { DesignReuse } from '../inference/dw-test.js';
 import { bounds as boundsOf } from '../bounds/bounds.js';
 import { densityCeiling } from './group-test.js';
@@ -53,6 +53,13 @@ function sameBytes(a: Uint8Array, b: Uint8Array): boolean {
   return true;
 }
 
+function sameTimes(a: Float64Array | undefined, b: ArrayLike<number> | undefined): boolean {
+  if (a === undefined || b === undefined) return a === b;
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
 /** Series on one design after which its density ceiling replaces a slope per series. */
 export const SHARED_CEILING_USES = 8;
 
@@ -78,6 +85,7 @@ export class DesignCache {
   private count = 0;
   private readonly uses = new Map<number, number>();
   private readonly ceilings = new Map<number, number | null>();
+  private lastDifference: { n: number; times: Float64Array | undefined; difference: DifferenceOperator } | null = null;
   /** Number of series that found their design already prepared. */
   hits = 0;
 
@@ -105,7 +113,7 @@ export class DesignCache {
       entry = { bytes, id: this.count++ };
       bucket.push(entry);
       try {
-        const problem = prepareProblem(x, n, opts);
+        const problem = prepareDesign(design, opts, this.difference(n, times));
         const distribution = new RememberingDistribution(problem.distribution.source, problem.distribution.options);
         const shared: DwProblem = { ...problem, distribution, warnings: [...problem.warnings] };
         entry.reuse = { problem: shared, bounds: (nn, kPrime, level) => this.bounds(nn, kPrime, level) };
@@ -129,6 +137,15 @@ export class DesignCache {
     if (uses < SHARED_CEILING_USES) return null;
     if (!this.ceilings.has(id)) this.ceilings.set(id, densityCeiling(reuse));
     return this.ceilings.get(id)!;
+  }
+
+  /** The differences for n observations at these times: those of the previous design when the times are the same. */
+  private difference(n: number, times: ArrayLike<number> | undefined): DifferenceOperator {
+    const last = this.lastDifference;
+    if (last && last.n === n && sameTimes(last.times, times)) return last.difference;
+    const difference = differenceOperator(n, this.options.lag ?? 1, times);
+    this.lastDifference = { n, times: times ? Float64Array.from(times) : undefined, difference };
+    return difference;
   }
 
   private bounds(n: number, kPrime: number, level: number): { dL: number; dU: number } {

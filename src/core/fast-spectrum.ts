@@ -89,7 +89,7 @@ export function fastSpectrum(a: BandMatrix, basis: ColumnBasis): Float64Array {
     throw new DwError('ENGINE_NOT_APPLICABLE', `The operator (n = ${a.n}) and the column basis (n = ${basis.n}, k = ${k}) do not fit together.`,
       'Build A with differenceMatrix and Q from the QR factorisation of the same design, with fewer columns than rows.');
   }
-  const chains = pathChains(a);
+  const chains = cachedPathChains(a);
   if (chains === null) {
     if (n > DENSE_SPECTRUM_MAX_N) {
       throw new DwError('SIZE_LIMIT', `The operator is not a difference operator, and its dense spectrum at n = ${n} would take too long (limit ${DENSE_SPECTRUM_MAX_N}).`,
@@ -104,10 +104,23 @@ export function fastSpectrum(a: BandMatrix, basis: ColumnBasis): Float64Array {
   const { values, coords } = chainEigenbasis(chains, basis);
   let vals = values;
   let cols = coords;
+  const work = new StepWork(n);
   for (let step = 0; step < k; step++) {
-    ({ vals, cols } = projectOut(vals, cols));
+    ({ vals, cols } = projectOut(vals, cols, work));
   }
   return vals;
+}
+
+/** The chains of operators already seen (an operator is shared by every design on the same times). */
+const chainsSeen = new WeakMap<BandMatrix, OperatorChains | null>();
+
+function cachedPathChains(a: BandMatrix): OperatorChains | null {
+  let chains = chainsSeen.get(a);
+  if (chains === undefined) {
+    chains = pathChains(a);
+    chainsSeen.set(a, chains);
+  }
+  return chains;
 }
 
 /**
@@ -190,9 +203,26 @@ export function pathChains(a: BandMatrix): OperatorChains | null {
   return ch;
 }
 
+/** cos(pi r / (2L)) for r = 0..4L-1, by chain length L (a few lengths per batch of designs). */
+const cosineTables = new Map<number, Float64Array>();
+
+function cosineTable(L: number): Float64Array {
+  let table = cosineTables.get(L);
+  if (table === undefined) {
+    table = new Float64Array(4 * L);
+    for (let r = 0; r < 4 * L; r++) table[r] = Math.cos((Math.PI * r) / (2 * L));
+    if (cosineTables.size >= 64) cosineTables.clear();
+    cosineTables.set(L, table);
+  }
+  return table;
+}
+
 /**
  * Eigenvalues of A (ascending) and the columns of Q in A's eigenbasis, chain by chain:
  * x_j = sum_t v_j(t) q(t) with the DCT-II vectors above, cosines from a table of cos(pi r / (2L)).
+ * The vectors are even (j even) or odd (j odd) about the chain's middle, cos(pi j (L - 1 - t + 1/2) / L)
+ * = (-1)^j cos(pi j (t + 1/2) / L), so each sum runs over half the chain, on q(t) + q(L-1-t) or
+ * q(t) - q(L-1-t) (and the middle point of an odd chain).
  */
 function chainEigenbasis(chains: OperatorChains, basis: ColumnBasis): { values: Float64Array; coords: Float64Array[] } {
   const { n, k, q } = basis;
@@ -201,34 +231,43 @@ function chainEigenbasis(chains: OperatorChains, basis: ColumnBasis): { values: 
   const nc = chains.starts.length - 1;
   let maxL = 0;
   for (let c = 0; c < nc; c++) maxL = Math.max(maxL, chains.starts[c + 1] - chains.starts[c]);
-  const table = new Float64Array(4 * maxL);
-  const gathered = new Float64Array(maxL * k);
-  const acc = new Float64Array(k);
+  const even = new Float64Array(maxL);
+  const odd = new Float64Array(maxL);
   for (let c = 0; c < nc; c++) {
     const s0 = chains.starts[c];
     const L = chains.starts[c + 1] - s0;
     const period = 4 * L;
-    for (let r = 0; r < period; r++) table[r] = Math.cos((Math.PI * r) / (2 * L));
-    for (let t = 0; t < L; t++) {
-      const node = chains.order[s0 + t];
-      for (let col = 0; col < k; col++) gathered[t * k + col] = q[col * n + node];
-    }
+    const table = cosineTable(L);
+    const h = L >> 1;
     for (let j = 0; j < L; j++) {
       const sn = Math.sin((Math.PI * j) / (2 * L));
       values[s0 + j] = 4 * sn * sn;
-      acc.fill(0);
-      // angle index r = j (2t + 1) mod 4L, stepping by 2j
-      const step = (2 * j) % period;
-      let r = j % period;
-      for (let t = 0; t < L; t++) {
-        const cv = table[r];
-        const o = t * k;
-        for (let col = 0; col < k; col++) acc[col] += cv * gathered[o + col];
-        r += step;
-        if (r >= period) r -= period;
+    }
+    for (let col = 0; col < k; col++) {
+      const off = col * n;
+      for (let t = 0; t < h; t++) {
+        const a = q[off + chains.order[s0 + t]];
+        const b = q[off + chains.order[s0 + L - 1 - t]];
+        even[t] = a + b;
+        odd[t] = a - b;
       }
-      const scale = Math.sqrt((j === 0 ? 1 : 2) / L);
-      for (let col = 0; col < k; col++) coords[col][s0 + j] = scale * acc[col];
+      const middle = L % 2 === 1 ? q[off + chains.order[s0 + h]] : 0;
+      const out = coords[col];
+      for (let j = 0; j < L; j++) {
+        const f = j % 2 === 0 ? even : odd;
+        // angle index r = j (2t + 1) mod 4L, stepping by 2j
+        const step = (2 * j) % period;
+        let r = j % period;
+        let acc = 0;
+        for (let t = 0; t < h; t++) {
+          acc += table[r] * f[t];
+          r += step;
+          if (r >= period) r -= period;
+        }
+        // the middle point of an odd chain: r = j L mod 4L there (cos(pi j / 2): 0 for odd j)
+        if (middle !== 0 && j % 2 === 0) acc += table[r] * middle;
+        out[s0 + j] = Math.sqrt((j === 0 ? 1 : 2) / L) * acc;
+      }
     }
   }
   return sortBasis(values, coords);
@@ -254,32 +293,70 @@ function sortBasis(values: Float64Array, coords: Float64Array[]): { values: Floa
   return { values: v, coords: cs };
 }
 
+/** Work space of the rank-one steps of one spectrum (every buffer of length n, reused step by step). */
+class StepWork {
+  readonly kept: Int32Array;
+  readonly deflated: Int32Array;
+  readonly poles: Float64Array;
+  readonly z2: Float64Array;
+  readonly origin: Int32Array;
+  readonly tau: Float64Array;
+  readonly prod: Float64Array;
+  readonly diff: Float64Array;
+  readonly zhat: Float64Array;
+  readonly order: Int32Array;
+  readonly res = new Float64Array(1);
+  private yk = new Float64Array(0);
+
+  constructor(n: number) {
+    this.kept = new Int32Array(n);
+    this.deflated = new Int32Array(n);
+    this.poles = new Float64Array(n);
+    this.z2 = new Float64Array(n);
+    this.origin = new Int32Array(n);
+    this.tau = new Float64Array(n);
+    this.prod = new Float64Array(n);
+    this.diff = new Float64Array(n);
+    this.zhat = new Float64Array(n);
+    this.order = new Int32Array(n);
+  }
+
+  /** Work space for the kept coordinates of r columns (row-major, N x r). */
+  rows(size: number): Float64Array {
+    if (this.yk.length < size) this.yk = new Float64Array(size);
+    return this.yk;
+  }
+}
+
 /**
  * One rank-one step: the compression of diag(vals) (ascending) to the complement of x = cols[0],
  * and the coordinates of cols[1..] in the eigenbasis of that compression. Returns one value fewer.
+ * `vals` and `cols` belong to this module and are overwritten.
  */
-function projectOut(vals: Float64Array, cols: Float64Array[]): { vals: Float64Array; cols: Float64Array[] } {
+function projectOut(vals: Float64Array, cols: Float64Array[], work: StepWork): { vals: Float64Array; cols: Float64Array[] } {
   const N0 = vals.length;
-  const rest = cols.slice(1); // owned by this module: rotated in place below
+  const rest = cols.slice(1); // rotated in place below
   const R = rest.length;
-  const x = Float64Array.from(cols[0]);
+  const x = cols[0];
   let nx = 0;
   for (let j = 0; j < N0; j++) nx += x[j] * x[j];
   nx = Math.sqrt(nx);
   for (let j = 0; j < N0; j++) x[j] /= nx;
-  const d = Float64Array.from(vals);
+  const d = vals;
   const spread = Math.max(Math.abs(d[0]), Math.abs(d[N0 - 1]), Number.MIN_VALUE);
   const tolZ = 8 * Number.EPSILON;
   const tolD = 8 * Number.EPSILON * spread;
 
   // deflation, in ascending order of the poles
-  const kept: number[] = [];
-  const deflated: number[] = [];
+  const { kept, deflated } = work;
+  let nKept = 0;
+  let nDeflated = 0;
   let prev = -1;
   for (let j = 0; j < N0; j++) {
-    if (Math.abs(x[j]) <= tolZ) { deflated.push(j); continue; }
+    if (Math.abs(x[j]) <= tolZ) { deflated[nDeflated++] = j; continue; }
     if (prev < 0) { prev = j; continue; }
-    const r = Math.hypot(x[prev], x[j]);
+    // |x| <= 1 and |x_prev|, |x_j| > tolZ: the sum of squares neither overflows nor underflows
+    const r = Math.sqrt(x[prev] * x[prev] + x[j] * x[j]);
     const cs = x[j] / r;
     const sn = x[prev] / r;
     if (Math.abs(cs * sn * (d[j] - d[prev])) <= tolD) {
@@ -294,29 +371,24 @@ function projectOut(vals: Float64Array, cols: Float64Array[]): { vals: Float64Ar
       const dp = d[prev], dj = d[j];
       d[prev] = dp * cs * cs + dj * sn * sn;
       d[j] = dp * sn * sn + dj * cs * cs;
-      deflated.push(prev);
+      deflated[nDeflated++] = prev;
     } else {
-      kept.push(prev);
+      kept[nKept++] = prev;
     }
     prev = j;
   }
-  if (prev >= 0) kept.push(prev);
+  if (prev >= 0) kept[nKept++] = prev;
 
   // the secular problem on the kept poles
-  const N = kept.length;
-  const poles = new Float64Array(N);
-  const z2 = new Float64Array(N);
+  const N = nKept;
+  const { poles, z2, origin, tau, prod, diff, res } = work;
   let nz = 0;
   for (let i = 0; i < N; i++) { poles[i] = d[kept[i]]; nz += x[kept[i]] * x[kept[i]]; }
   for (let i = 0; i < N; i++) z2[i] = (x[kept[i]] * x[kept[i]]) / nz;
-  const roots = N - 1;
-  const origin = new Int32Array(Math.max(0, roots));
-  const tau = new Float64Array(Math.max(0, roots));
-  const prod = new Float64Array(N).fill(1);
-  const diff = new Float64Array(N);
-  const res = new Float64Array(1);
+  const roots = Math.max(0, N - 1);
+  prod.fill(1, 0, N);
   for (let i = 0; i < roots; i++) {
-    origin[i] = secularRoot(poles, z2, i, diff, res);
+    origin[i] = secularRoot(poles, z2, N, i, diff, res);
     tau[i] = res[0];
     if (R > 0) {
       // Gu-Eisenstat: prod_j *= (nu_i - d_j) / (d_i' - d_j), i' = i below j, i + 1 from j on
@@ -329,48 +401,104 @@ function projectOut(vals: Float64Array, cols: Float64Array[]): { vals: Float64Ar
   }
 
   // assemble: deflated directions keep their values and coordinates; roots get transformed ones
-  const M = deflated.length + roots;
+  // (roots at positions nDeflated.., the deflated directions before them)
+  const M = nDeflated + roots;
   const out = new Float64Array(M);
   const outCols = rest.map(() => new Float64Array(M));
-  let pos = 0;
-  for (const j of deflated) {
-    out[pos] = d[j];
-    for (let c = 0; c < R; c++) outCols[c][pos] = rest[c][j];
-    pos++;
+  for (let p = 0; p < nDeflated; p++) {
+    const j = deflated[p];
+    out[p] = d[j];
+    for (let c = 0; c < R; c++) outCols[c][p] = rest[c][j];
   }
+  const pos = nDeflated;
   if (R > 0 && roots > 0) {
-    const zhat = new Float64Array(N);
+    const zhat = work.zhat;
     for (let j = 0; j < N; j++) zhat[j] = Math.sign(x[kept[j]]) * Math.sqrt(prod[j]);
-    const yk = new Float64Array(N * R);
+    const yk = work.rows(N * R);
     for (let j = 0; j < N; j++) for (let c = 0; c < R; c++) yk[j * R + c] = rest[c][kept[j]];
-    const dots = new Float64Array(R);
-    for (let i = 0; i < roots; i++) {
-      const base = poles[origin[i]];
-      const ti = tau[i];
-      let norm = 0;
-      dots.fill(0);
-      for (let j = 0; j < N; j++) {
-        const w = zhat[j] / ((poles[j] - base) - ti);
-        norm += w * w;
-        const o = j * R;
-        for (let c = 0; c < R; c++) dots[c] += w * yk[o + c];
+    if (R === 1) {
+      for (let i = 0; i < roots; i++) {
+        const base = poles[origin[i]];
+        const ti = tau[i];
+        let norm = 0;
+        let dot = 0;
+        for (let j = 0; j < N; j++) {
+          const w = zhat[j] / ((poles[j] - base) - ti);
+          norm += w * w;
+          dot += w * yk[j];
+        }
+        outCols[0][pos + i] = dot * (1 / Math.sqrt(norm));
       }
-      const inv = 1 / Math.sqrt(norm);
-      for (let c = 0; c < R; c++) outCols[c][pos + i] = dots[c] * inv;
+    } else {
+      const dots = new Float64Array(R);
+      for (let i = 0; i < roots; i++) {
+        const base = poles[origin[i]];
+        const ti = tau[i];
+        let norm = 0;
+        dots.fill(0);
+        for (let j = 0; j < N; j++) {
+          const w = zhat[j] / ((poles[j] - base) - ti);
+          norm += w * w;
+          const o = j * R;
+          for (let c = 0; c < R; c++) dots[c] += w * yk[o + c];
+        }
+        const inv = 1 / Math.sqrt(norm);
+        for (let c = 0; c < R; c++) outCols[c][pos + i] = dots[c] * inv;
+      }
     }
   }
   for (let i = 0; i < roots; i++) out[pos + i] = poles[origin[i]] + tau[i];
-  const sorted = sortBasis(out, outCols);
-  return { vals: sorted.values, cols: sorted.coords };
+  return mergeAscending(out, outCols, nDeflated, work.order);
 }
 
 /**
- * The root of sum_j z2_j / (d_j - nu) = 0 in (d_i, d_{i+1}) (poles strictly increasing, weights
- * positive). Returns the index of the nearer pole (the origin) and writes nu - d_origin into res[0];
+ * Sort values whose first `head` entries are the deflated directions (in any order) and whose
+ * remaining entries (the roots) ascend, permuting the coordinate vectors alike: an insertion sort of
+ * the head (nearly ascending already) and a merge, which orders exactly as the stable sort of
+ * {@link sortBasis} does (used when the roots do not ascend).
+ */
+function mergeAscending(values: Float64Array, coords: Float64Array[], head: number, order: Int32Array): { vals: Float64Array; cols: Float64Array[] } {
+  const N = values.length;
+  for (let i = head + 1; i < N; i++) {
+    // the roots ascend in exact arithmetic; should rounding have swapped two, sort it all
+    if (values[i - 1] > values[i]) {
+      const s = sortBasis(values, coords);
+      return { vals: s.values, cols: s.coords };
+    }
+  }
+  for (let i = 0; i < head; i++) {
+    const v = values[i];
+    let p = i;
+    while (p > 0 && values[order[p - 1]] > v) { order[p] = order[p - 1]; p--; }
+    order[p] = i;
+  }
+  let sorted = true;
+  for (let i = 1; i < head && sorted; i++) sorted = order[i] === i;
+  if (sorted && (head === 0 || head === N || values[head - 1] <= values[head])) return { vals: values, cols: coords };
+  // merge the sorted head (order[0..head)) with the tail head..N-1, head entries first on ties
+  const idx = new Int32Array(N);
+  let a = 0;
+  let b = head;
+  for (let p = 0; p < N; p++) {
+    if (b >= N || (a < head && values[order[a]] <= values[b])) idx[p] = order[a++];
+    else idx[p] = b++;
+  }
+  const v = new Float64Array(N);
+  for (let i = 0; i < N; i++) v[i] = values[idx[i]];
+  const cs = coords.map((y) => {
+    const out = new Float64Array(N);
+    for (let i = 0; i < N; i++) out[i] = y[idx[i]];
+    return out;
+  });
+  return { vals: v, cols: cs };
+}
+
+/**
+ * The root of sum_j z2_j / (d_j - nu) = 0 in (d_i, d_{i+1}) (poles d_0..d_{N-1} strictly increasing,
+ * weights positive). Returns the index of the nearer pole (the origin) and writes nu - d_origin into res[0];
  * `diff` is work space of length N. Li's middle-way iteration, safeguarded by the bracket.
  */
-function secularRoot(d: Float64Array, z2: Float64Array, i: number, diff: Float64Array, res: Float64Array): number {
-  const N = d.length;
+function secularRoot(d: Float64Array, z2: Float64Array, N: number, i: number, diff: Float64Array, res: Float64Array): number {
   const del = d[i + 1] - d[i];
   const mid = 0.5 * del;
   // f at the midpoint decides which pole is nearer to the root

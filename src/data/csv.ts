@@ -79,14 +79,7 @@ export function parseCsv(text: string, options: CsvOptions = {}): DataTable {
     throw new DwError('CSV_EMPTY', `${cap(source)} is empty.`, 'Give a CSV file with a header row and one row per observation.', { file });
   }
   const delimiter = options.delimiter ?? detectDelimiter(text);
-  const parsed = Papa.parse<string[]>(text, { delimiter, newline: '\n', skipEmptyLines: false });
-  const fatal = parsed.errors.find((e) => e.type === 'Quotes');
-  if (fatal) {
-    const row = fatal.row ?? 0;
-    throw new DwError('CSV_MALFORMED', `${cap(source)} has an unclosed quotation mark in ${row === 0 ? 'the header row' : `data row ${row}`}.`,
-      'Close the quote or remove it.', { file, row: row || undefined });
-  }
-  const all = parsed.data.map((r) => r.map((c) => c));
+  const all = splitRecords(text, delimiter, source, file);
   // blank lines: at the end they are ignored; between observations they are refused, because a
   // silently dropped row would join two observations that are not neighbours in time
   const blank = (r: string[]) => r.every((c) => c.trim() === '');
@@ -141,6 +134,24 @@ export function parseCsv(text: string, options: CsvOptions = {}): DataTable {
   return { headers, rows, delimiter, decimal, source };
 }
 
+/**
+ * The records and fields of the text (line ends already LF). Without any quotation mark the RFC 4180
+ * grammar reduces to splitting at line ends and delimiters, which is done directly (papaparse does
+ * the same in that case, more slowly); text with quotes goes to papaparse.
+ */
+export function splitRecords(text: string, delimiter: string, source: string, file: string | undefined): string[][] {
+  if (text === '') return [];
+  if (!text.includes('"')) return text.split('\n').map((line) => line.split(delimiter));
+  const parsed = Papa.parse<string[]>(text, { delimiter, newline: '\n', skipEmptyLines: false });
+  const fatal = parsed.errors.find((e) => e.type === 'Quotes');
+  if (fatal) {
+    const row = fatal.row ?? 0;
+    throw new DwError('CSV_MALFORMED', `${cap(source)} has an unclosed quotation mark in ${row === 0 ? 'the header row' : `data row ${row}`}.`,
+      'Close the quote or remove it.', { file, row: row || undefined });
+  }
+  return parsed.data;
+}
+
 function cap(s: string): string {
   return s.charAt(0).toUpperCase() + s.slice(1);
 }
@@ -151,7 +162,7 @@ function cap(s: string): string {
  * then in the order `,` `;` tab.
  */
 function detectDelimiter(text: string): ',' | ';' | '\t' {
-  const lines = text.split('\n').filter((l) => l.trim() !== '').slice(0, 50);
+  const lines = firstLines(text, 50);
   const count = (line: string, d: string) => Papa.parse<string[]>(line, { delimiter: d }).data[0]?.length ?? 1;
   const candidates = [',', ';', '\t'] as const;
   const header = candidates.map((d) => count(lines[0], d));
@@ -167,6 +178,20 @@ function detectDelimiter(text: string): ',' | ';' | '\t' {
     if (a > agree) { agree = a; choice = d; }
   }
   return choice;
+}
+
+/** The first `count` lines of the text that are not blank (without splitting the rest of it). */
+function firstLines(text: string, count: number): string[] {
+  const lines: string[] = [];
+  let from = 0;
+  while (lines.length < count && from <= text.length) {
+    let to = text.indexOf('\n', from);
+    if (to < 0) to = text.length;
+    const line = text.slice(from, to);
+    if (line.trim() !== '') lines.push(line);
+    from = to + 1;
+  }
+  return lines;
 }
 
 /** Decimal commas or points, from the cells of a `;`- or tab-delimited file. */
@@ -205,8 +230,35 @@ function detectDecimal(rows: string[][], delimiter: string, source: string, file
  */
 export function parseCell(table: DataTable, row: number, column: string, text: string): number {
   let v = text.trim();
-  const where = `data row ${row + 1}, column '${column}' of ${table.source}`;
-  const detail = { file: table.source, row: row + 1, column, value: v };
+  const pattern = table.decimal === 'comma' ? COMMA_NUMBER : POINT_NUMBER;
+  // the usual cell, a plain number: no missing-value code or infinity matches the pattern, so the
+  // refusals below are reached only by cells that are not plain numbers
+  if (!pattern.test(v)) refuseCell(table, row, column, text, v);
+  if (table.decimal === 'comma') v = v.replace(',', '.');
+  const x = Number(v);
+  if (!Number.isFinite(x)) {
+    throw new DwError('CELL_NOT_FINITE', `'${text.trim()}' at ${cellPlace(table, row, column)} is too large to represent as a double-precision number.`,
+      'Rescale the column (for example express it in thousands).', cellDetail(table, row, column, text));
+  }
+  if (x !== 0 && Math.abs(x) < MIN_NORMAL) {
+    throw new DwError('CELL_NOT_FINITE', `'${text.trim()}' at ${cellPlace(table, row, column)} is too small to represent as a double-precision number without loss.`,
+      'Rescale the column (multiply it by a power of ten).', cellDetail(table, row, column, text));
+  }
+  return x;
+}
+
+function cellPlace(table: DataTable, row: number, column: string): string {
+  return `data row ${row + 1}, column '${column}' of ${table.source}`;
+}
+
+function cellDetail(table: DataTable, row: number, column: string, text: string): { file: string; row: number; column: string; value: string } {
+  return { file: table.source, row: row + 1, column, value: text.trim() };
+}
+
+/** The refusal of a cell (trimmed text v) that is not a plain number: missing, infinite or not numeric. */
+function refuseCell(table: DataTable, row: number, column: string, text: string, v: string): never {
+  const where = cellPlace(table, row, column);
+  const detail = cellDetail(table, row, column, text);
   if (MISSING.has(v.toLowerCase())) {
     throw new DwError('CELL_EMPTY', `Missing value ${v === '' ? `(${text === '' ? 'empty' : 'blank'} cell)` : `'${v}'`} at ${where}.`,
       'The exact test needs a complete series: fill the value, or drop the rows with missing values (they become gaps in the time index).', detail);
@@ -214,22 +266,8 @@ export function parseCell(table: DataTable, row: number, column: string, text: s
   if (/^[+-]?(inf|infinity|∞)$/i.test(v)) {
     throw new DwError('CELL_NOT_FINITE', `Infinite value '${v}' at ${where}.`, 'Every value must be a finite number.', detail);
   }
-  const pattern = table.decimal === 'comma' ? COMMA_NUMBER : POINT_NUMBER;
-  if (!pattern.test(v)) {
-    const { hint, suggest } = notNumberHint(table, v);
-    throw new DwError('CELL_NOT_NUMERIC', `'${v}' at ${where} is not a number.`, hint, suggest ? { ...detail, suggest } : detail);
-  }
-  if (table.decimal === 'comma') v = v.replace(',', '.');
-  const x = Number(v);
-  if (!Number.isFinite(x)) {
-    throw new DwError('CELL_NOT_FINITE', `'${text.trim()}' at ${where} is too large to represent as a double-precision number.`,
-      'Rescale the column (for example express it in thousands).', detail);
-  }
-  if (x !== 0 && Math.abs(x) < MIN_NORMAL) {
-    throw new DwError('CELL_NOT_FINITE', `'${text.trim()}' at ${where} is too small to represent as a double-precision number without loss.`,
-      'Rescale the column (multiply it by a power of ten).', detail);
-  }
-  return x;
+  const { hint, suggest } = notNumberHint(table, v);
+  throw new DwError('CELL_NOT_NUMERIC', `'${v}' at ${where} is not a number.`, hint, suggest ? { ...detail, suggest } : detail);
 }
 
 function notNumberHint(table: DataTable, v: string): { hint: string; suggest?: DwSuggestion[] } {

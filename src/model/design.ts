@@ -280,28 +280,11 @@ export function factorDesign(design: Design): FactoredDesign {
       `Remove ${flat.length === 1 ? 'that column' : 'those columns'}, or subtract a constant from ${flat.length === 1 ? 'it' : 'them'} before export if the variation is real.`,
       { column: design.names[flat[0]] });
   }
-  // find every column that is (numerically) in the span of the earlier independent ones
-  const bad: number[] = [];
-  const keep: number[] = [];
-  for (let j = 0; j < k; j++) {
-    const trial = [...keep, j];
-    const sub = new Float64Array(n * trial.length);
-    trial.forEach((c, t) => sub.set(p.subarray(c * n, c * n + n), t * n));
-    const f = householderQR(sub, n, trial.length);
-    const r = Math.abs(f.rdiag[trial.length - 1]);
-    if (!(r > RANK_TOLERANCE)) bad.push(j); else keep.push(j);
-  }
-  if (bad.length > 0) {
-    const list = bad.map((j) => `'${design.names[j]}'`).join(', ');
-    const constantDup = bad.some((j) => isConstant(x.subarray(j * n, j * n + n)));
-    throw new DwError('RANK_DEFICIENT',
-      `The design is rank deficient: ${list} ${bad.length === 1 ? 'is a linear combination' : 'are linear combinations'} of the other columns (to within a relative ${RANK_TOLERANCE.toExponential(0)})${constantDup ? '; a constant column duplicates the intercept' : ''}.`,
-      `Remove ${bad.length === 1 ? 'that column' : 'those columns'} (or the columns ${bad.length === 1 ? 'it duplicates' : 'they duplicate'}); if ${bad.length === 1 ? 'it is' : 'they are'} a power or product of other columns (such as year^2), centre the variable first (year - 2005) and rebuild ${bad.length === 1 ? 'it' : 'them'}.`,
-      { column: design.names[bad[0]] });
-  }
+  // Householder QR treats the columns in order: the j-th diagonal entry of R depends on columns
+  // 0..j only, so while every earlier column is independent it is the trial's entry below
   const qr = householderQR(p, n, k);
-  const condition = conditionEstimate(qr);
-  if (!(condition <= CONDITION_LIMIT)) {
+  if (!qr.rdiag.every((r) => Math.abs(r) > RANK_TOLERANCE)) rankDeficient(design, p);
+  const condition = conditionEstimate(qr);  if (!(condition <= CONDITION_LIMIT)) {
     throw new DwError('ILL_CONDITIONED',
       `The design is too ill-conditioned for an exact answer: its condition number (after centring and scaling the columns) is about ${condition.toExponential(1)}, above the limit ${CONDITION_LIMIT.toExponential(0)}, so rounding could move the p-value by more than 1e-8.`,
       'Centre and scale the regressors (for example (year - 2005) / 10), or use orthogonal polynomials for trends; see docs/errors-and-limits.md.',
@@ -314,6 +297,31 @@ export function factorDesign(design: Design): FactoredDesign {
   for (let i = k; i < n; i++) outside += ones[i] * ones[i];
   const spansConstant = interceptIndex >= 0 || Math.sqrt(outside / n) <= 1e-9;
   return { design, qr, shift, scale, condition, spansConstant };
+}
+
+/**
+ * The refusal of a rank-deficient design (preconditioned columns p): every column that is
+ * (numerically) in the span of the earlier independent ones, by one trial QR per column.
+ */
+function rankDeficient(design: Design, p: Float64Array): never {
+  const { n, k, x } = design;
+  const bad: number[] = [];
+  const keep: number[] = [];
+  for (let j = 0; j < k; j++) {
+    const trial = [...keep, j];
+    const sub = new Float64Array(n * trial.length);
+    trial.forEach((c, t) => sub.set(p.subarray(c * n, c * n + n), t * n));
+    const f = householderQR(sub, n, trial.length);
+    const r = Math.abs(f.rdiag[trial.length - 1]);
+    if (!(r > RANK_TOLERANCE)) bad.push(j); else keep.push(j);
+  }
+  // the first column whose entry fails is among them (its trial is the QR above): bad is not empty
+  const list = bad.map((j) => `'${design.names[j]}'`).join(', ');
+  const constantDup = bad.some((j) => isConstant(x.subarray(j * n, j * n + n)));
+  throw new DwError('RANK_DEFICIENT',
+    `The design is rank deficient: ${list} ${bad.length === 1 ? 'is a linear combination' : 'are linear combinations'} of the other columns (to within a relative ${RANK_TOLERANCE.toExponential(0)})${constantDup ? '; a constant column duplicates the intercept' : ''}.`,
+    `Remove ${bad.length === 1 ? 'that column' : 'those columns'} (or the columns ${bad.length === 1 ? 'it duplicates' : 'they duplicate'}); if ${bad.length === 1 ? 'it is' : 'they are'} a power or product of other columns (such as year^2), centre the variable first (year - 2005) and rebuild ${bad.length === 1 ? 'it' : 'them'}.`,
+    { column: design.names[bad[0]] });
 }
 
 /** ||R||_F ||R^-1||_F: within a factor k of the 2-norm condition number. */

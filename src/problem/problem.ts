@@ -11,7 +11,7 @@ import { DwNullDistribution } from '../distribution/null-distribution.js';
 import { designSource, type NullSource } from '../core/source.js';
 import { AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
 import { DwError } from '../errors.js';
-import { buildDesign, factorDesign, CONDITION_WARNING, type FactoredDesign, type RegressorInput } from '../model/design.js';
+import { buildDesign, factorDesign, CONDITION_WARNING, type Design, type FactoredDesign, type RegressorInput } from '../model/design.js';
 
 /** What defines the statistic and its design. */
 export interface ProblemOptions {
@@ -78,11 +78,46 @@ function checkNotDegenerate(source: NullSource, n: number): void {
  * ```
  */
 export function prepareProblem(x: RegressorInput, n: number, options: ProblemOptions = {}): DwProblem {
-  const design = buildDesign(x, n, { intercept: options.intercept, names: options.names });
+  return prepareDesign(buildDesign(x, n, { intercept: options.intercept, names: options.names }), options);
+}
+
+/** The differences d is made of and the operator A they define (docs/methods.md section 1). */
+export interface DifferenceOperator {
+  pairs: DifferencePairs;
+  operator: BandMatrix;
+}
+
+/**
+ * The differences for n observations at lag `lag` (default 1) and the given times (consecutive
+ * when omitted), with their operator A: what {@link prepareDesign} uses, for callers that prepare
+ * many designs on the same times.
+ *
+ * @example
+ * ```ts
+ * differenceOperator(52).operator.n; // 52
+ * ```
+ */
+export function differenceOperator(n: number, lag = 1, times?: ArrayLike<number>): DifferenceOperator {
+  const pairs = differencePairs(n, lag, times);
+  return { pairs, operator: differenceMatrix(pairs) };
+}
+
+/**
+ * {@link prepareProblem} for a design already built by `buildDesign` (with the same intercept rule
+ * and names as `options` give), and optionally its differences already formed by
+ * {@link differenceOperator} (n, `options.lag` and `options.times`): the same problem, bit for bit.
+ *
+ * @example
+ * ```ts
+ * const design = buildDesign({ trend: [1, 2, 3, 4, 5, 6, 7, 8] }, 8);
+ * prepareDesign(design).distribution.quantile(0.05); // as prepareProblem({ trend: [...] }, 8)
+ * ```
+ */
+export function prepareDesign(design: Design, options: ProblemOptions = {}, difference?: DifferenceOperator): DwProblem {
+  const { n } = design;
   checkSize(n, design.k, options.method ?? 'auto', { spectrum: 'structured', bandwidth: options.lag ?? 1 });
   const factored = factorDesign(design);
-  const pairs = differencePairs(n, options.lag ?? 1, options.times);
-  const operator = differenceMatrix(pairs);
+  const { pairs, operator } = difference ?? differenceOperator(n, options.lag ?? 1, options.times);
   const basis = columnBasis(factored.qr);
   // each computed nu_i may differ from the true one through rounding in the design's basis
   // (about condition x eps in angle, times ||A|| <= its Gershgorin bound) and in the spectrum
