@@ -104,7 +104,7 @@ export function fastSpectrum(a: BandMatrix, basis: ColumnBasis): Float64Array {
   const { values, coords } = chainEigenbasis(chains, basis);
   let vals = values;
   let cols = coords;
-  const work = new StepWork(n);
+  const work = stepWork(n);
   for (let step = 0; step < k; step++) {
     ({ vals, cols } = projectOut(vals, cols, work));
   }
@@ -326,6 +326,14 @@ class StepWork {
     if (this.yk.length < size) this.yk = new Float64Array(size);
     return this.yk;
   }
+}
+
+/** The work space of the last spectrum, reused while large enough (every buffer is written before it is read). */
+let lastWork: StepWork | null = null;
+
+function stepWork(n: number): StepWork {
+  if (lastWork === null || lastWork.kept.length < n) lastWork = new StepWork(n);
+  return lastWork;
 }
 
 /**

@@ -193,12 +193,13 @@ export function parseTimeLabels(labels: ArrayLike<string | number>, options: Tim
   for (let i = 0; i < n; i++) {
     const raw = labels[i];
     const text = typeof raw === 'number' ? (Number.isFinite(raw) ? String(raw) : 'NaN') : String(raw ?? '').trim();
-    if (MISSING.includes(text.toLowerCase())) {
-      throw new DwError('CELL_EMPTY', `Missing time label ${text === '' ? '(empty cell)' : `'${text}'`} at ${where(options, i)}.`,
-        'Fill the label, or drop the rows with missing values (they become gaps).', detail(options, i, text));
-    }
+    // no missing-value code reads as a label, so the codes are looked for only when reading fails
     const l = readLabel(text);
     if (l === null || l === 'invalid') {
+      if (MISSING.includes(text.toLowerCase())) {
+        throw new DwError('CELL_EMPTY', `Missing time label ${text === '' ? '(empty cell)' : `'${text}'`} at ${where(options, i)}.`,
+          'Fill the label, or drop the rows with missing values (they become gaps).', detail(options, i, text));
+      }
       if (SLASHED.test(text)) {
         throw new DwError('TIME_LABEL_AMBIGUOUS', `The time label '${text}' at ${where(options, i)} does not say which number is the day and which the month.`,
           'Write dates in ISO form, year-month-day (2015-02-01).', detail(options, i, text));

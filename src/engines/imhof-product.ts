@@ -7,7 +7,9 @@
  *                             = rho(u)^2 exp(2 i theta(u)),
  *
  * so one pass of complex multiplications (four products and two sums per weight) replaces m
- * arctangents and m logarithms; a single atan2 and log finish the evaluation. theta must be the
+ * arctangents and m logarithms; the pass keeps two running products (weights at even and at odd
+ * positions), whose arguments add and whose moduli multiply, so that two independent chains of
+ * multiplications run side by side, and two atan2 and one log finish the evaluation. theta must be the
  * continuous branch (the sum of principal arctangents), so the product's turns about the origin are
  * counted as it is formed: each factor turns it by less than pi/2, hence a change of sign of the
  * imaginary part while the real part is negative is a crossing of the negative real axis, counted
@@ -34,6 +36,59 @@ const SMALL = 2 ** -200;
 const LOG_BIG = 200 * Math.LN2;
 
 /**
+ * theta(u) into out[0] and log rho(u) into out[1] (see the file comment): two running products,
+ * of the weights at even and at odd positions, each with its own count of turns and of rescalings,
+ * so that the two chains of dependent multiplications run side by side; theta is the sum of their
+ * continuous arguments and rho^4 the product of their squared moduli (each below 2^401, so the
+ * product cannot overflow). With `density`, out[2] and out[3] receive sum 1/(1 + x_j^2) and
+ * sum x_j/(1 + x_j^2), x_j = lambda_j u (the density's sums, {@link imhofProductWithDensity}).
+ */
+function productAt(lambda: Float64Array, m: number, u: number, out: Float64Array, density = false): void {
+  let re1 = 1, im1 = 0, turns1 = 0, scale1 = 0;
+  let re2 = 1, im2 = 0, turns2 = 0, scale2 = 0;
+  let a = 0, b = 0;
+  let j = 0;
+  for (; j + 1 < m; j += 2) {
+    const x1 = lambda[j] * u;
+    const x2 = lambda[j + 1] * u;
+    const nr1 = re1 - im1 * x1;
+    const ni1 = im1 + re1 * x1;
+    const nr2 = re2 - im2 * x2;
+    const ni2 = im2 + re2 * x2;
+    // upper half plane: im >= 0 (with -0 counted as upper, as the final atan2 below reads it)
+    if (nr1 < 0 && (ni1 < 0) !== (im1 < 0)) turns1 += im1 < 0 ? -1 : 1;
+    if (nr2 < 0 && (ni2 < 0) !== (im2 < 0)) turns2 += im2 < 0 ? -1 : 1;
+    re1 = nr1; im1 = ni1;
+    re2 = nr2; im2 = ni2;
+    if (Math.abs(re1) > BIG || Math.abs(im1) > BIG) { re1 *= SMALL; im1 *= SMALL; scale1++; }
+    if (Math.abs(re2) > BIG || Math.abs(im2) > BIG) { re2 *= SMALL; im2 *= SMALL; scale2++; }
+    if (density) {
+      const q1 = 1 / (1 + x1 * x1);
+      const q2 = 1 / (1 + x2 * x2);
+      a += q1 + q2;
+      b += x1 * q1 + x2 * q2;
+    }
+  }
+  if (j < m) {
+    const x = lambda[j] * u;
+    const nr = re1 - im1 * x;
+    const ni = im1 + re1 * x;
+    if (nr < 0 && (ni < 0) !== (im1 < 0)) turns1 += im1 < 0 ? -1 : 1;
+    re1 = nr; im1 = ni;
+    if (Math.abs(re1) > BIG || Math.abs(im1) > BIG) { re1 *= SMALL; im1 *= SMALL; scale1++; }
+    if (density) {
+      const q = 1 / (1 + x * x);
+      a += q;
+      b += x * q;
+    }
+  }
+  const arg = Math.atan2(im1 === 0 ? 0 : im1, re1) + Math.atan2(im2 === 0 ? 0 : im2, re2) + 2 * Math.PI * (turns1 + turns2);
+  out[0] = 0.5 * arg;
+  out[1] = 0.25 * Math.log((re1 * re1 + im1 * im1) * (re2 * re2 + im2 * im2)) + 0.5 * (scale1 + scale2) * LOG_BIG;
+  if (density) { out[2] = a; out[3] = b; }
+}
+
+/**
  * The characteristic form of Q = sign * sum (nu_j - c) z_j^2 from an explicit spectrum, evaluated
  * as a complex product (see the file comment). The same weights, m, sums and truncation data as
  * {@link spectralForm} (src/engines/imhof.ts); only `evaluate` differs, by rounding.
@@ -51,23 +106,7 @@ export function productSpectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 
   return {
     ...summary,
     evaluate(u: number, out: Float64Array): void {
-      let re = 1;
-      let im = 0;
-      let turns = 0;
-      let scale = 0;
-      for (let j = 0; j < m; j++) {
-        const x = lambda[j] * u;
-        const nr = re - im * x;
-        const ni = im + re * x;
-        // upper half plane: im >= 0 (with -0 counted as upper, as the final atan2 below reads it)
-        if (nr < 0 && (ni < 0) !== (im < 0)) turns += im < 0 ? -1 : 1;
-        re = nr;
-        im = ni;
-        if (Math.abs(re) > BIG || Math.abs(im) > BIG) { re *= SMALL; im *= SMALL; scale++; }
-      }
-      const arg = Math.atan2(im === 0 ? 0 : im, re) + 2 * Math.PI * turns;
-      out[0] = 0.5 * arg;
-      out[1] = 0.25 * Math.log(re * re + im * im) + 0.5 * scale * LOG_BIG;
+      productAt(lambda, m, u, out);
     },
   };
 }
@@ -139,27 +178,16 @@ export function imhofProductWithDensity(nu: Float64Array, c: number, tail: Tail,
   const half = 0.5 * w.sumLambda;
   let g1 = 0;
   let g2 = 0;
+  const form = new Float64Array(4);
   const at = (u: number): void => {
     if (u === 0) { g1 = half; g2 = 0.5 * n; return; }
-    let re = 1, im = 0, turns = 0, scale = 0, a = 0, b = 0;
-    for (let j = 0; j < n; j++) {
-      const x = l[j] * u;
-      const nr = re - im * x;
-      const ni = im + re * x;
-      if (nr < 0 && (ni < 0) !== (im < 0)) turns += im < 0 ? -1 : 1;
-      re = nr;
-      im = ni;
-      if (Math.abs(re) > BIG || Math.abs(im) > BIG) { re *= SMALL; im *= SMALL; scale++; }
-      const q = 1 / (1 + x * x);
-      a += q;
-      b += x * q;
-    }
+    productAt(l, n, u, form, true);
     // exactly the arithmetic of productSpectralForm + integrateImhof's integrand
-    const theta = 0.5 * (Math.atan2(im === 0 ? 0 : im, re) + 2 * Math.PI * turns);
-    const logRho = 0.25 * Math.log(re * re + im * im) + 0.5 * scale * LOG_BIG;
-    const rho = Math.exp(logRho);
-    g1 = Math.sin(theta) / (u * rho);
-    g2 = (0.5 * (Math.cos(theta) * a - Math.sin(theta) * b)) / rho;
+    const theta = form[0];
+    const rho = Math.exp(form[1]);
+    const sin = Math.sin(theta);
+    g1 = sin / (u * rho);
+    g2 = (0.5 * (Math.cos(theta) * form[2] - sin * form[3])) / rho;
   };
   const panels = adaptivePair(at, () => g1, () => g2, upper, w.maxAbsLambda, Math.PI * tol * 0.5, options.maxPanels ?? 4000);
   const p = Math.min(1, Math.max(0, 0.5 - panels[0] / Math.PI));
