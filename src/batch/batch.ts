@@ -284,6 +284,12 @@ function detectGroupTime(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 
   return null;
 }
 
+function sameLabels(a: string[], b: string[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
 function groupError(err: unknown): BatchGroupError {
   if (isDwError(err)) return { code: err.code, message: err.message, hint: err.hint, ...(err.detail?.suggest ? { suggest: err.detail.suggest } : {}) };
   throw err;
@@ -315,25 +321,36 @@ export function testGroups(
   const jy = columnIndex(table, columns.y);
   const jx = columns.x.map((h) => columnIndex(table, h));
   const jt = columns.time === null ? -1 : columnIndex(table, columns.time);
+  // the labels and periods of the last group read: groups on the same time labels (the usual
+  // batch) read them once
+  let lastLabels: string[] = [];
+  let lastPeriods: Float64Array | undefined;
   for (let g = from; g < to; g++) {
     const label = grouping.labels[g];
     const rows = grouping.rows[g];
     const n = rows.length;
     try {
       const y = new Float64Array(n);
-      const x: Record<string, Float64Array> = {};
-      for (const h of columns.x) x[h] = new Float64Array(n);
+      const xs = columns.x.map(() => new Float64Array(n));
       for (let i = 0; i < n; i++) {
         const cells = table.rows[rows[i]];
         y[i] = parseCell(table, rows[i], columns.y, cells[jy]);
-        for (let c = 0; c < jx.length; c++) x[columns.x[c]][i] = parseCell(table, rows[i], columns.x[c], cells[jx[c]]);
+        for (let c = 0; c < jx.length; c++) xs[c][i] = parseCell(table, rows[i], columns.x[c], cells[jx[c]]);
       }
+      const x: Record<string, Float64Array> = {};
+      columns.x.forEach((h, c) => { x[h] = xs[c]; });
       // the time labels of this group (whole numbers, quarters, months or ISO dates: src/data/time-index.ts)
-      const times = jt >= 0
-        ? parseTimeLabels(Array.from(rows, (r) => table.rows[r][jt]), {
-          column: columns.time!, source: table.source, rows: Array.from(rows, (r) => r + 1), frequency: input.frequency,
-        }).periods
-        : undefined;
+      let times: Float64Array | undefined;
+      if (jt >= 0) {
+        const labels = Array.from(rows, (r) => table.rows[r][jt]);
+        if (lastPeriods === undefined || !sameLabels(labels, lastLabels)) {
+          lastPeriods = parseTimeLabels(labels, {
+            column: columns.time!, source: table.source, rows: Array.from(rows, (r) => r + 1), frequency: input.frequency,
+          }).periods;
+          lastLabels = labels;
+        }
+        times = lastPeriods;
+      }
       const { id, reuse } = cache.lookup(x, n, times);
       const quick = input.critical === true ? null : seriesAnswer(y, reuse, input.alternative ?? 'positive', input.alpha ?? 0.05, times, () => cache.ceiling(id, reuse));
       if (quick) {

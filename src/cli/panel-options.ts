@@ -3,7 +3,7 @@
  * pooled panel test (src/panel/panel.ts), read from the data file and checked where they enter.
  */
 import { DwError } from '../errors.js';
-import { columnIndex, numericColumn, textColumn, type DataTable } from '../data/csv.js';
+import { columnIndex, isMissingCell, numericColumn, textColumn, type DataTable } from '../data/csv.js';
 import { parseTimeLabels, type TimeFrequency } from '../data/time-index.js';
 import type { PanelInput } from '../panel/panel.js';
 import { listOption, type OptionSpecs, type OptionValues } from './args.js';
@@ -24,7 +24,7 @@ export const PANEL_OPTIONS: OptionSpecs = {
  * const panel = panelFromOptions(values, table, x); // { entity: [...], time: Float64Array, entityEffects }
  * ```
  */
-export function panelFromOptions(values: OptionValues, table: DataTable, x: Record<string, Float64Array>, frequency?: TimeFrequency): PanelInput | undefined {
+export function panelFromOptions(values: OptionValues, table: DataTable, x: Record<string, Float64Array>, frequency?: TimeFrequency, dropMissing = false): PanelInput | undefined {
   const col = values.panel;
   if (col === undefined) {
     if (values['entity-effects'] === true) {
@@ -47,7 +47,7 @@ export function panelFromOptions(values: OptionValues, table: DataTable, x: Reco
   const entity = table.rows.map((r) => r[j].trim());
   return {
     entity,
-    time: panelTimes(table, values.time, entity, frequency),
+    time: panelTimes(table, values.time, entity, frequency, dropMissing),
     entityEffects: values['entity-effects'] === true,
   };
 }
@@ -55,14 +55,25 @@ export function panelFromOptions(values: OptionValues, table: DataTable, x: Reco
 /**
  * The period number of every row of a panel: whole numbers as they are; quarter, month or ISO-date
  * labels (src/data/time-index.ts) read entity by entity, in the order of the labels (these formats
- * sort as text), with one frequency for all entities.
+ * sort as text), with one frequency for all entities. With `dropMissing`, the rows without an entity
+ * or a time get NaN (the test drops them).
  */
-function panelTimes(table: DataTable, column: string, entity: string[], frequency: TimeFrequency | undefined): Float64Array {
+function panelTimes(table: DataTable, column: string, entity: string[], frequency: TimeFrequency | undefined, dropMissing: boolean): Float64Array {
   const cells = textColumn(table, column);
-  if (cells.every((c) => /^\s*[+-]?\d+(\.0*)?\s*$/.test(c))) return numericColumn(table, column);
-  const groups = new Map<string, number[]>();
-  entity.forEach((e, r) => { const g = groups.get(e); if (g) g.push(r); else groups.set(e, [r]); });
+  // with --drop-missing, a row without its entity or time is NaN here and dropped by the test
+  const skip = (r: number) => dropMissing && (isMissingCell(entity[r]) || isMissingCell(cells[r]));
   const out = new Float64Array(cells.length);
+  if (cells.every((c, r) => skip(r) || /^\s*[+-]?\d+(\.0*)?\s*$/.test(c))) {
+    const numbers = numericColumn(table, column, { missingAsNaN: dropMissing });
+    cells.forEach((_, r) => { out[r] = skip(r) ? NaN : numbers[r]; });
+    return out;
+  }
+  const groups = new Map<string, number[]>();
+  entity.forEach((e, r) => {
+    if (skip(r)) { out[r] = NaN; return; }
+    const g = groups.get(e);
+    if (g) g.push(r); else groups.set(e, [r]);
+  });
   let seen: { frequency: TimeFrequency; entity: string } | null = null;
   for (const [e, rows] of groups) {
     rows.sort((a, b) => (cells[a].trim() < cells[b].trim() ? -1 : cells[a].trim() > cells[b].trim() ? 1 : a - b));

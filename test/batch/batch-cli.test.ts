@@ -130,6 +130,33 @@ describe('exact-dw test --panel', () => {
     expect(Math.abs(j.pPositive - c.pPositive)).toBeLessThan(1e-9);
     expect(Math.abs(j.d - c.d)).toBeLessThan(1e-12);
   });
+  it('--drop-missing with --panel: incomplete rows (no y, no x1, no time, no entity) are dropped and listed, and the reference p-value comes back', async () => {
+    const c = ref.cases.find((x) => !x.entityEffects)!;
+    const lines = ref.rows.map((r) => `${r.entity},${r.time},${r.y},${r.x1},${r.x2}`);
+    lines.splice(2, 0, 'north,2005,NA,3.1,1');
+    lines.splice(9, 0, 'south,2013,2.5,,1.2');
+    lines.splice(15, 0, 'east,NA,2.2,2.9,0.7');
+    lines.splice(30, 0, ',2003,2.4,3.3,0.9');
+    const gappy = join(dir, 'panel-missing.csv');
+    writeFileSync(gappy, 'entity,year,y,x1,x2\n' + lines.join('\n') + '\n');
+    const refused = await cli('test', gappy, '--y', 'y', '--panel', 'entity', '--time', 'year', '--format', 'json');
+    expect(refused.status).toBe(2);
+    expect(refused.err).toMatch(/--drop-missing[\s\S]*\[CELL_EMPTY\]/);
+    const r = await cli('test', gappy, '--y', 'y', '--panel', 'entity', '--time', 'year', '--drop-missing', '--format', 'json');
+    expect(r.status).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(Math.abs(j.pPositive - c.pPositive)).toBeLessThan(1e-9);
+    expect(Math.abs(j.d - c.d)).toBeLessThan(1e-12);
+    expect(j.droppedRows).toEqual({ count: 4, rows: [3, 10, 16, 31] });
+    // quarter labels, one of them missing, read entity by entity
+    const label = (t: number) => `${2000 + Math.floor(t / 4)}Q${(t % 4) + 1}`;
+    const quarters = lines.map((l) => { const f = l.split(','); f[1] = f[1] === 'NA' ? 'NA' : label(Number(f[1])); return f.join(','); });
+    const qfile = join(dir, 'panel-missing-quarters.csv');
+    writeFileSync(qfile, 'entity,quarter,y,x1,x2\n' + quarters.join('\n') + '\n');
+    const q = await cli('test', qfile, '--y', 'y', '--panel', 'entity', '--time', 'quarter', '--drop-missing', '--format', 'json');
+    expect(q.status).toBe(0);
+    expect(Math.abs(JSON.parse(q.out).pPositive - c.pPositive)).toBeLessThan(1e-9);
+  });
   it('--panel needs --time; --entity-effects needs --panel', async () => {
     const a = await cli('test', file, '--y', 'y', '--panel', 'entity');
     expect(a.status).toBe(2);

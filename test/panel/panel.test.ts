@@ -86,9 +86,38 @@ describe('pooled panel (reference: numpy dense spectrum of M A M, mpmath Imhof)'
     expect(() => preparePanel({ entity: ['a', '', 'b', 'b'], time: [1, 2, 1, 2] }, {}, 4, 1)).toThrowError(expect.objectContaining({ code: 'CELL_EMPTY' }));
     expect(() => exactDwTest({ ...input, panel: panelOf(false), times: rows.map((r) => r.time) })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT' }));
     expect(() => exactDwTest({ ...input, panel: panelOf(false), power: { rho: [0.5] } })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT' }));
-    // time labels beside the panel's own times, and dropping rows (a pooled panel needs every row)
+    // time labels beside the panel's own times
     expect(() => exactDwTest({ ...input, panel: panelOf(false), time: { labels: rows.map((r) => String(r.time)) } })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT' }));
-    expect(() => exactDwTest({ ...input, panel: panelOf(false), dropMissing: true })).toThrowError(expect.objectContaining({ code: 'OPTION_CONFLICT', message: expect.stringMatching(/pooled panel/) }));
+  });
+
+  it('dropping rows with missing values: the rows of the reference panel plus four incomplete ones give the reference p-values', () => {
+    // the extra rows: north's missing period with no y, a later period of south with no x1, a row
+    // of east without its time, a row without its entity; once they are dropped the data are the
+    // reference panel's rows (north keeps its gap at period 5)
+    const extra = [
+      { at: 3, entity: 'north', time: 2005, y: NaN, x1: 3.1, x2: 1 },
+      { at: 10, entity: 'south', time: 2013, y: 2.5, x1: NaN, x2: 1.2 },
+      { at: 20, entity: 'east', time: NaN, y: 2.2, x1: 2.9, x2: 0.7 },
+      { at: 31, entity: 'NA', time: 2003, y: 2.4, x1: 3.3, x2: 0.9 },
+    ];
+    const all: Array<{ entity: string; time: number; y: number; x1: number; x2: number }> = [...rows];
+    for (const e of extra) all.splice(e.at, 0, e);
+    const data = {
+      y: all.map((r) => r.y),
+      x: { x1: all.map((r) => r.x1), x2: all.map((r) => r.x2) },
+    };
+    for (const c of ref.cases) {
+      const panel = { entity: all.map((r) => r.entity), time: all.map((r) => r.time), entityEffects: c.entityEffects };
+      expect(() => exactDwTest({ ...data, panel })).toThrowError(expect.objectContaining({ code: expect.stringMatching(/CELL_|LENGTH|TIME/) }));
+      const r = exactDwTest({ ...data, panel, dropMissing: true, alternative: 'positive' });
+      expect(r.n).toBe(c.n);
+      expect(r.panel?.pairs).toBe(c.pairs);
+      expect(Math.abs(r.d - c.d)).toBeLessThan(1e-12);
+      expect(Math.abs(r.pPositive - c.pPositive)).toBeLessThan(1e-9);
+      expect(Math.abs(r.pNegative - c.pNegative)).toBeLessThan(1e-9);
+      expect(r.droppedRows).toEqual({ count: 4, rows: extra.map((e) => e.at + 1) });
+      expect(r.warnings).toContainEqual({ code: 'ROWS_DROPPED', count: 4, rows: extra.map((e) => e.at + 1), asGaps: true });
+    }
   });
 
   it('a regressor constant within each entity is absorbed by the entity effects (rank-deficient)', () => {

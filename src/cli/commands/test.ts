@@ -248,16 +248,12 @@ export const testCommand: Command = {
       { named, y: yName, listed: listOption(values, 'x') });
     const timeName = choice.column;
     const drop = values['drop-missing'] === true;
-    if (drop && values.panel !== undefined) {
-      throw new DwError('OPTION_CONFLICT', '--drop-missing cannot be combined with --panel: a pooled panel needs every row of every entity.',
-        'Remove the rows with missing values from the file, or test the entities one by one with batch.');
-    }
     const { y, x } = withMissingHint(() => ({
       y: numericColumn(table, yName, { missingAsNaN: drop }),
       x: chooseRegressors(table, { ...values, time: timeName ?? undefined }, yName, drop),
     }));
     // a panel's times restart in each entity: they go with the panel, not with the single-series time index
-    const panel = panelFromOptions(values, table, x, frequency);
+    const panel = withMissingHint(() => panelFromOptions(values, table, x, frequency, drop));
     const time = timeName !== null && panel === undefined
       ? { labels: textColumn(table, timeName), name: timeName, frequency, detected: choice.how === 'detected', source: table.source }
       : undefined;
