@@ -69,8 +69,9 @@ export interface DwTestInput extends ProblemOptions {
   /** Frequency of the time index instead of the inferred one. */
   frequency?: TimeFrequency;
   /**
-   * Drop the rows with a missing value (NaN, null) in y, a regressor or the time index; they are
-   * listed in `droppedRows` and become gaps. Without it such values are refused.
+   * Drop the rows with a missing value (NaN, null) in y, a regressor or the time index (for a
+   * panel also the entity, or a missing-value code as its label); they are listed in `droppedRows`
+   * and become gaps (within their entity, for a panel). Without it such values are refused.
    */
   dropMissing?: boolean;
   /** Input file and options, copied into the result for reproducibility. */
