@@ -98,6 +98,25 @@ describe('exact-dw batch', () => {
     expect(strip(two)).toEqual(strip(one));
     expect(two.summary.tested).toBe(one.summary.tested);
   });
+
+  it('three threads (this one and two workers): the same numbers, and a bad cell in a worker\'s share is named by its row in the file', () => {
+    const main = join(process.cwd(), 'dist/src/cli/main.js');
+    if (!existsSync(main)) throw new Error('build first (npm test builds)');
+    const lines = stations().trimEnd().split('\n');
+    // station 8, period 5 (data row 7 * 16 + 5 = 117): text where a number belongs
+    const bad = lines.findIndex((l) => l.startsWith('st8,5,'));
+    lines[bad] = lines[bad].replace(/^st8,5,[^,]*/, 'st8,5,n/q');
+    const file = join(dir, 'stations-bad.csv');
+    writeFileSync(file, lines.join('\n') + '\n');
+    const run = (w: string) => JSON.parse(execFileSync(process.execPath, [main, 'batch', file, '--by', 'station', '--y', 'flow', '--x', 'rain', '--time', 'period', '--format', 'json', '--workers', w], { encoding: 'utf8' }));
+    const one = run('1');
+    const three = run('3');
+    const strip = (j: { groups: Array<Record<string, unknown>> }) => j.groups.map(({ design: _d, ...rest }) => rest);
+    expect(strip(three)).toEqual(strip(one));
+    const st8 = three.groups.find((g: { group: string }) => g.group === 'st8');
+    expect(st8.error.code).toBe('CELL_NOT_NUMERIC');
+    expect(st8.error.message).toMatch(new RegExp(`data row ${bad}, column 'flow'`));
+  });
 });
 
 describe('exact-dw test --panel', () => {
