@@ -19,7 +19,8 @@ import { differenceMatrix, differencePairs, bandToDense } from '../src/core/diff
 import { columnBasis } from '../src/linalg/qr.js';
 import { denseSpectrum } from '../src/core/spectrum.js';
 import { fastSpectrum, FAST_SPECTRUM_MAX_N } from '../src/core/fast-spectrum.js';
-import { imhofTail, integrateImhof } from '../src/engines/imhof.js';
+import { integrateImhof } from '../src/engines/imhof.js';
+import { imhofTail } from '../src/engines/imhof-product.js';
 import { panTail, panApplicable } from '../src/engines/pan.js';
 import { eigenfreeForm } from '../src/engines/eigenfree.js';
 import { dctTail } from '../src/engines/dct.js';

@@ -35,7 +35,8 @@ export { fastSpectrum, FAST_SPECTRUM_MAX_N, DENSE_SPECTRUM_MAX_N } from './core/
 export { symmetricEigenvalues, tridiagonalEigenvalues } from './linalg/symmetric-eigen.js';
 
 // spectral engines
-export { imhofTail, imhofDensity, integrateImhof, spectralForm, type ImhofOptions, type ImhofIntegral } from './engines/imhof.js';
+export { imhofDensity, integrateImhof, spectralForm, type ImhofOptions, type ImhofIntegral } from './engines/imhof.js';
+export { imhofTail } from './engines/imhof-product.js';
 export { panTail, panApplicable, type PanOptions } from './engines/pan.js';
 export { contourTail } from './engines/saddle-contour.js';
 

@@ -1,52 +1,24 @@
 /**
- * The tail probabilities of a batch series: the `auto` engine's answer with Imhof's integral on the
- * spectrum evaluated as one complex product per point (src/engines/imhof-product.ts) instead of m
- * arctangents and logarithms, which is most of the cost of a series with its own design at n ~ 50.
+ * The tail probabilities of a batch series: the single test's own engine answer (the `auto` rule
+ * of src/engines/choose.ts, Imhof's integral on the spectrum evaluated as a complex product,
+ * src/engines/imhof-product.ts), with the allowance for rounding in the spectrum obtained more
+ * cheaply.
  *
- * The rule is the `auto` rule of src/engines/choose.ts for designs whose spectrum it uses
- * (n <= AUTO_SPECTRUM_MAX_N): Imhof's integral on the spectrum answers when c lies outside the
- * support or its relative error is within AUTO_RELATIVE_TARGET; otherwise (a small tail) the
- * request goes to `tailProbability` itself, which makes exactly the choice it always makes. Other
- * engines and larger n go to `tailProbability` unchanged.
- *
- * The allowance for rounding in the spectrum follows DwNullDistribution.lowerTail / upperTail
+ * That allowance follows DwNullDistribution.lowerTail / upperTail
  * (src/distribution/null-distribution.ts): every nu_i is known to within delta, so d and c are too,
  * and the tail moves by at most 2 delta times the slope of the distribution function near c. The
  * single test measures that slope by a second integral at c + h; here, for c well inside the
  * support, the density of d at c comes from the same evaluations as the tail (with its own error
  * bound, added to it), which saves the second integral. Near the ends of the support, and where
  * the density cannot be bounded (two weights), the single test's rule is used as it is. Hence every
- * probability is the single test's up to rounding in the integrand (about 1e-15), and every error
- * bound is built from the same terms (test/batch/batch-fast-tail.test.ts).
+ * probability is the single test's, bit for bit, and every error bound is built from the same
+ * terms (test/batch/batch-fast-tail.test.ts).
  */
 import type { DwNullDistribution } from '../distribution/null-distribution.js';
 import type { Tail, TailProbability } from '../core/types.js';
-import { tailProbability, AUTO_SPECTRUM_MAX_N, AUTO_RELATIVE_TARGET, type EngineOptions } from '../engines/choose.js';
-import { imhofProductTail, imhofProductWithDensity } from '../engines/imhof-product.js';
+import { tailProbability, AUTO_SPECTRUM_MAX_N, AUTO_RELATIVE_TARGET } from '../engines/choose.js';
+import { imhofProductWithDensity } from '../engines/imhof-product.js';
 import { DwError } from '../errors.js';
-
-/**
- * P(d <= c) or P(d >= c) by the engine `options.method` chooses (`auto`: see the file comment),
- * without the allowance for rounding in the spectrum.
- *
- * @example
- * ```ts
- * const { distribution } = prepareProblem({ t: [1, 2, 3, 4, 5, 6, 7, 8] }, 8);
- * engineTail(distribution.source, 1.1, 'lower', {}); // as tailProbability(..., { method: 'auto' }), to ~1e-15
- * ```
- */
-export function engineTail(source: DwNullDistribution['source'], c: number, tail: Tail, options: EngineOptions): TailProbability {
-  const method = options.method ?? 'auto';
-  const n = source.basis?.n ?? 0;
-  if (method !== 'auto' || (source.operator && n > AUTO_SPECTRUM_MAX_N)) return tailProbability(source, c, tail, options);
-  const nu = source.spectrum();
-  const im = imhofProductTail(nu, c, tail, { tolerance: options.tolerance });
-  if (c <= nu[0] || c >= nu[nu.length - 1] || im.relativeError <= AUTO_RELATIVE_TARGET) {
-    return { ...im, reason: { code: 'IMHOF_SPECTRUM' } as const };
-  }
-  // a small tail: the tail engines decide, exactly as for a single test
-  return tailProbability(source, c, tail, options);
-}
 
 /**
  * P(d <= c) (`lower`) or P(d >= c) (`upper`) for the null distribution `dist`, with the error
@@ -85,14 +57,14 @@ export function batchTail(dist: DwNullDistribution, c: number, tail: Tail): Tail
       }
     }
   }
-  const r = engineTail(source, c, tail, options);
+  const r = tailProbability(source, c, tail, options);
   if (!(delta > 0)) return r;
   const [lo, hi] = dist.support;
   const h = Math.max(1e4 * delta, 1e-9 * (hi - lo));
   if (c - lo <= h || hi - c <= h) {
     let extra = 0;
     for (const c2 of [c - 2 * delta, c + 2 * delta]) {
-      const r2 = engineTail(source, c2, tail, options);
+      const r2 = tailProbability(source, c2, tail, options);
       extra = Math.max(extra, Math.abs(r2.p - r.p) + r2.errorBound);
     }
     const errorBound = r.errorBound + extra;
@@ -100,7 +72,7 @@ export function batchTail(dist: DwNullDistribution, c: number, tail: Tail): Tail
   }
   if (r.p === 0 || r.p === 1) return r;
   const c2 = tail === 'lower' ? c + h : c - h;
-  return withSlope(r, engineTail(source, c2, tail, options), delta, h);
+  return withSlope(r, tailProbability(source, c2, tail, options), delta, h);
 }
 
 /** r with the allowance 2 delta x slope, the slope measured from r and r2 = the tail h further in. */

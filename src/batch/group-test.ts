@@ -2,9 +2,8 @@
  * The test of one series of a batch on a shared prepared design, computing only what the batch
  * table shows: d (from the least-squares residuals, Durbin & Watson 1950), the exact p-value of
  * the alternative tested with its error bound, and the decision. It calls the same functions as the
- * single test (src/inference/dw-test.ts), so d is the same number bit for bit; the p-value is the
- * same integral on the same nodes with its integrand evaluated as one complex product
- * (src/batch/fast-tail.ts), equal up to rounding (about 1e-15); the error bound is that of the
+ * single test (src/inference/dw-test.ts), so d and the p-value are the same numbers bit for bit
+ * (the same engines on the same spectrum, src/batch/fast-tail.ts); the error bound is that of the
  * tail(s) tested only (the single test reports the larger of both tails'). The allowance for rounding in X and y (a slope of the distribution function times a
  * rounding size of order 1e-14) is bounded through the tail's own error bound, which already holds
  * the distribution's slope at d, instead of by two more evaluations; for a design shared by many
@@ -19,8 +18,8 @@ import { detectLaggedDependent } from '../dynamic/lagged-dependent.js';
 import type { Alternative } from '../core/alternative.js';
 import type { DesignReuse } from '../inference/dw-test.js';
 import type { TailProbability } from '../core/types.js';
-import { AUTO_SPECTRUM_MAX_N } from '../engines/choose.js';
-import { batchTail, engineTail } from './fast-tail.js';
+import { batchTail } from './fast-tail.js';
+import { AUTO_SPECTRUM_MAX_N, tailProbability } from '../engines/choose.js';
 import { DwError } from '../errors.js';
 import type { DwWarning } from '../inference/warnings.js';
 
@@ -97,7 +96,7 @@ export function seriesAnswer(
   const delta = dist.source.spectrumError;
   const tailAt = (tail: 'lower' | 'upper'): TailProbability => {
     if (ceiling === null) return batchTail(dist, d, tail);
-    const r = engineTail(dist.source, d, tail, dist.options);
+    const r = tailProbability(dist.source, d, tail, dist.options);
     if (!(delta > 0) || r.p === 0 || r.p === 1) return r;
     const extra = 2 * delta * ceiling;
     return { ...r, errorBound: r.errorBound + extra, relativeError: r.relativeError + extra / r.p };

@@ -23,7 +23,8 @@
 import { DwError, isDwError } from '../errors.js';
 import { FAST_SPECTRUM_MAX_N } from '../core/fast-spectrum.js';
 import type { MethodChoice, Tail, TailProbability } from '../core/types.js';
-import { imhofTail, integrateImhof } from './imhof.js';
+import { integrateImhof } from './imhof.js';
+import { imhofTail } from './imhof-product.js';
 import { panApplicable, panTail } from './pan.js';
 import { eigenfreeForm } from './eigenfree.js';
 import { contourTail } from './saddle-contour.js';

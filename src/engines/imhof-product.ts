@@ -112,17 +112,18 @@ export function productSpectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 
 }
 
 /**
- * P(d <= c) (`lower`) or P(d >= c) (`upper`) from the ascending spectrum `nu` by Imhof's integral
- * on {@link productSpectralForm}: the same integration, cut and error bound as `imhofTail`
- * (src/engines/imhof.ts), the integrand evaluated as a complex product. Method `imhof`.
+ * P(d <= c) (`lower`) or P(d >= c) (`upper`) from the spectrum `nu` (ascending) by Imhof's integral
+ * (src/engines/imhof.ts: `integrateImhof`, its cut and error bound) on the complex-product form of
+ * its integrand (`productSpectralForm`, src/engines/imhof-product.ts).
+ * The upper tail is computed directly as P(-Q <= 0), not as 1 - P(Q <= 0). Method `imhof`.
  *
  * @example
  * ```ts
  * const nu = Float64Array.from({ length: 18 }, (_, i) => 2 - 2 * Math.cos(Math.PI * (i + 1) / 20));
- * imhofProductTail(nu, 1.2, 'lower'); // { p: ~0.05, errorBound: < 1e-10, method: 'imhof', ... }
+ * imhofTail(nu, 1.2, 'lower'); // { p: ~0.05, errorBound: < 1e-10, method: 'imhof', ... }
  * ```
  */
-export function imhofProductTail(nu: Float64Array, c: number, tail: Tail, options: ImhofOptions = {}): TailProbability {
+export function imhofTail(nu: Float64Array, c: number, tail: Tail, options: ImhofOptions = {}): TailProbability {
   const m = nu.length;
   const below = tail === 'lower';
   if (c <= nu[0]) return exactTail(below ? 0 : 1, 'imhof');
@@ -146,7 +147,7 @@ export interface TailAndDensity {
 }
 
 /**
- * The tail at c by Imhof's integral (exactly `imhofProductTail(nu, c, tail)`: the same nodes,
+ * The tail at c by Imhof's integral (exactly `imhofTail(nu, c, tail)`: the same nodes,
  * cut and bound) and, from the same evaluations, the density of d at c: the derivative of Imhof's
  * form with respect to c (as `imhofDensity`, src/engines/imhof.ts),
  *

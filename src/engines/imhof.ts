@@ -154,26 +154,6 @@ export function spectralForm(nu: Float64Array, c: number, sign: 1 | -1 = 1): Cha
 }
 
 /**
- * P(d <= c) (`lower`) or P(d >= c) (`upper`) from the spectrum `nu` (ascending) by Imhof's integral.
- * The upper tail is computed directly as P(-Q <= 0), not as 1 - P(Q <= 0).
- *
- * @example
- * ```ts
- * const nu = Float64Array.from({ length: 18 }, (_, i) => 2 - 2 * Math.cos(Math.PI * (i + 1) / 20));
- * imhofTail(nu, 1.2, 'lower'); // { p: ~0.05, errorBound: < 1e-10, method: 'imhof', ... }
- * ```
- */
-export function imhofTail(nu: Float64Array, c: number, tail: Tail, options: ImhofOptions = {}): TailProbability {
-  const m = nu.length;
-  const below = tail === 'lower';
-  if (c <= nu[0]) return exactTail(below ? 0 : 1, 'imhof');
-  if (c >= nu[m - 1]) return exactTail(below ? 1 : 0, 'imhof');
-  const r = integrateImhof(spectralForm(nu, c, below ? 1 : -1), options);
-  return { p: r.p, errorBound: r.errorBound, relativeError: r.p > 0 ? r.errorBound / r.p : Infinity, method: 'imhof' };
-}
-
-
-/**
  * The exact density of d at c, the derivative of Imhof's form of P(d <= c) with respect to c:
  *
  *   f(c) = (1/pi) Integral_0^inf [cos(theta) (1/2) sum 1/(1 + lambda^2 u^2)
