@@ -30,6 +30,7 @@ export const el = {
   adjust: byId<HTMLSelectElement>('adjust'),
   adjustField: byId('adjust-field'),
   time: byId<HTMLSelectElement>('time'),
+  timeBatchNote: byId('time-batch-note'),
   dropMissing: byId<HTMLInputElement>('drop-missing'),
   dropMissingOff: byId('drop-missing-off'),
   frequency: byId<HTMLSelectElement>('frequency'),

@@ -65,7 +65,7 @@ const RULE = 'rule';
 function fillTimeOptions(t: TableSummary, batch: boolean, selected: string | null): void {
   const options: HTMLOptionElement[] = [];
   if (batch) {
-    options.push(h('option', { value: '', 'data-role': RULE, selected: selected === null }, 'found in each group by the time-index rule'));
+    options.push(h('option', { value: '', 'data-role': RULE, selected: selected === null }, 'by the rule, per group'));
     options.push(h('option', { value: '', selected: selected === '' }, "none: each group's rows are consecutive"));
     for (const c of t.columns) {
       if (c.numeric || c.timeLike || c.timeLabels) options.push(h('option', { value: c.name, selected: c.name === selected }, c.name));
@@ -95,6 +95,7 @@ function showMode(): void {
   el.dropMissingOff.hidden = !batchMode;
   el.rho.disabled = batchMode;
   el.rhoOff.hidden = !batchMode;
+  el.timeBatchNote.hidden = !batchMode;
   el.computeButton.textContent = batchMode ? 'Compute the exact test of every group' : 'Compute the exact test';
 }
 

@@ -221,8 +221,8 @@ describe('the page tests each group of a stacked file separately', () => {
     expect(lib.summary.failed).toBe(2);
     expect(lib.summary.rejected).toBeGreaterThan(0);
     expect(lib.summary.tested - lib.summary.rejected).toBeGreaterThan(0);
-    const failed = lib.groups.filter((g) => g.error).map((g) => g.group);
-    expect(failed).toEqual(['Eskby', 'Fallow Hill']);
+    const failed = lib.groups.filter((g) => g.error).map((g) => [g.group, g.error!.code]);
+    expect(failed).toEqual([['Eskby', 'TOO_FEW_ROWS'], ['Fallow Hill', 'RANK_DEFICIENT']]);
     // Holm and BH must differ from the raw p-values to be a check
     const holm = libraryBatch({ adjust: 'holm' });
     const bh = libraryBatch({ adjust: 'bh' });
@@ -246,7 +246,8 @@ describe('the page tests each group of a stacked file separately', () => {
     expect(await page.locator('input[name="y"][value="station"]').isDisabled()).toBe(true);
     expect(await page.locator('input[name="x"][value="station"]').isDisabled()).toBe(true);
     // the time column: the time-index rule within each group by default
-    expect(await page.locator('#time option:checked').textContent()).toMatch(/time-index rule/);
+    expect(await page.locator('#time option:checked').getAttribute('data-role')).toBe('rule');
+    expect(await page.locator('#time-batch-note').isVisible()).toBe(true);
     expect(await page.locator('#compute').textContent()).toMatch(/every group/);
     await page.close();
   });
@@ -336,7 +337,9 @@ describe('the page tests each group of a stacked file separately', () => {
     expect(await page.locator('#adjust-field').isHidden()).toBe(true);
     expect(await page.locator('#drop-missing').isEnabled()).toBe(true);
     expect(await page.locator('#rho').isEnabled()).toBe(true);
+    expect(await page.locator('#time-batch-note').isHidden()).toBe(true);
     expect(await page.locator('#time').inputValue()).toBe(timeBefore);
+    expect(await page.locator('#time option[data-role="rule"]').count()).toBe(0);
     expect(await page.locator('input[name="y"][value="station"]').isDisabled()).toBe(false);
     await compute(page);
     expect(await page.locator('#result-error').isHidden()).toBe(true);
