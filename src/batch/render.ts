@@ -12,14 +12,15 @@ import type { BatchGroup, BatchResult } from './batch.js';
 export const BATCH_FORMATS = ['markdown', 'csv', 'latex', 'json'] as const;
 export type BatchFormat = (typeof BATCH_FORMATS)[number];
 
-const DECISION_WORDS: Record<NonNullable<BatchGroup['decision']>, string> = {
+/** A group's decision in the words of the tables (also shown by the page). */
+export const BATCH_DECISION_WORDS: Readonly<Record<NonNullable<BatchGroup['decision']>, string>> = {
   reject: 'reject',
   'not-rejected': 'not rejected',
   'not-valid': 'd not valid',
 };
 
 /** Label of a group in a table (rows without a label get a visible stand-in). */
-function groupLabel(g: BatchGroup): string {
+export function batchGroupLabel(g: BatchGroup): string {
   return g.group === '' ? '(no label)' : g.group;
 }
 
@@ -60,9 +61,9 @@ function cellP(p: number | null, g: BatchGroup, alpha: number, f: TableFormat): 
 function tableRows(batch: BatchResult, f: TableFormat): string[][] {
   const esc = f === 'latex' ? escapeLatex : escapeMarkdown;
   return batch.groups.map((g) => {
-    const row = [esc(groupLabel(g)), g.n === null ? '' : String(g.n), g.k === null ? '' : String(g.k), g.d === null ? '' : inline(fixed(g.d, 4), f), cellP(g.pValue, g, batch.alpha, f)];
+    const row = [esc(batchGroupLabel(g)), g.n === null ? '' : String(g.n), g.k === null ? '' : String(g.k), g.d === null ? '' : inline(fixed(g.d, 4), f), cellP(g.pValue, g, batch.alpha, f)];
     if (batch.adjust) row.push(cellP(g.pAdjusted, g, batch.alpha, f));
-    row.push(g.error ? esc(`not tested (${g.error.code})`) : esc(DECISION_WORDS[g.decision!]));
+    row.push(g.error ? esc(`not tested (${g.error.code})`) : esc(BATCH_DECISION_WORDS[g.decision!]));
     return row;
   });
 }
@@ -108,7 +109,7 @@ export function renderBatchMarkdown(batch: BatchResult): string {
   const failures = batch.groups.filter((g) => g.error);
   if (failures.length) {
     lines.push('', 'Not tested:', '');
-    for (const g of failures) lines.push(`- ${escapeMarkdown(groupLabel(g))}: ${escapeMarkdown(`${g.error!.message} ${g.error!.hint}`.trim())} (\`${g.error!.code}\`)`);
+    for (const g of failures) lines.push(`- ${escapeMarkdown(batchGroupLabel(g))}: ${escapeMarkdown(`${g.error!.message} ${g.error!.hint}`.trim())} (\`${g.error!.code}\`)`);
   }
   for (const n of batch.notes) if (n.code !== 'BATCH_GROUPS_FAILED') lines.push('', escapeMarkdown(noteText(n)));
   lines.push('', escapeMarkdown(BATCH_ASSUMPTIONS));

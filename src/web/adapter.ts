@@ -5,6 +5,9 @@
  * off, its function returns null and the page says "not part of this build". Nothing here computes
  * a statistic: every number comes from the library.
  *
+ * The batch (one test per group, src/batch/) is reached here too: its run, the words of its notes
+ * and its tables, which are the bytes the command line writes.
+ *
  * The lines marked "REPORTS" depend on src/report, those marked "POWER" on src/power. To build the
  * page without one of them: remove its marked import, set its capabilities to false, and replace
  * each of its other marked lines by `return null;`.
@@ -15,9 +18,12 @@ import { renderText } from '../report/text.js';
 import { renderDensitySvg, paperParagraph, renderMarkdown } from '../report/index.js'; // REPORTS
 import { powerForProblem } from '../power/exact-power.js'; // POWER
 import { inline } from '../report/format.js';
-import { boundsResolutionWords, durbinHWords, engineChoiceWords, timeIndexWords, warningText } from '../report/wording.js';
+import { ADJUSTMENT_NAMES, BATCH_ASSUMPTIONS, boundsResolutionWords, durbinHWords, engineChoiceWords, noteText, timeIndexWords, warningText } from '../report/wording.js';
+import { exactDwBatch, type BatchInput, type BatchResult } from '../batch/batch.js';
+import { BATCH_DECISION_WORDS, renderBatch } from '../batch/render.js';
+import type { Adjustment } from '../batch/adjust.js';
 import type { BoundsZone } from '../inference/dw-test.js';
-import type { DwWarning } from '../inference/warnings.js';
+import type { BatchNote, DwWarning } from '../inference/warnings.js';
 
 /**
  * A note of a result in plain words, as every report words it (src/report/wording.ts).
@@ -218,3 +224,63 @@ export function powerAt(input: DwTestInput, result: DwTestResult, rho: number | 
   const s = powerForProblem(problemOf(input, result), { rho: [rho], alpha: result.alpha, alternative: result.alternative, times: usedTimes.get(input) ?? input.times }); // POWER
   return { rho, power: s.curve[0].power, errorBound: s.curve[0].errorBound, critical: s.critical, target: s.target, rhoAtTarget: s.rhoAtTarget }; // POWER
 }
+
+/**
+ * One exact test per group of rows, as the library runs it (exactDwBatch).
+ *
+ * @example
+ * ```ts
+ * runBatch({ table, by: 'station', y: 'rain', x: ['temp'], adjust: 'holm' }).summary;
+ * ```
+ */
+export function runBatch(input: BatchInput): BatchResult {
+  return exactDwBatch(input);
+}
+
+/** The batch table in the formats of src/batch/render.ts: the same text the command line writes. */
+export interface BatchDownloads {
+  csv: string;
+  markdown: string;
+  latex: string;
+  json: string;
+}
+
+/**
+ * The batch table as CSV, Markdown, booktabs LaTeX and JSON, by the renderers the command line uses.
+ *
+ * @example
+ * ```ts
+ * batchDownloads(batch).csv; // what `exact-dw batch ... --format csv` prints
+ * ```
+ */
+export function batchDownloads(batch: BatchResult): BatchDownloads {
+  return { csv: renderBatch(batch, 'csv'), markdown: renderBatch(batch, 'markdown'), latex: renderBatch(batch, 'latex'), json: renderBatch(batch, 'json') };
+}
+
+/**
+ * A note of a batch in plain words, as the batch tables word it.
+ *
+ * @example
+ * ```ts
+ * batchNoteWords({ code: 'BATCH_GROUPS_FAILED', failed: 1, groups: 5 }); // "1 of 5 groups could not be tested; ..."
+ * ```
+ */
+export function batchNoteWords(note: BatchNote): string {
+  return inline(noteText(note), 'text');
+}
+
+/** What every batch table states under it: the assumptions, and that it supports the analyst's judgement. */
+export const batchCautions: string = inline(BATCH_ASSUMPTIONS, 'text');
+
+/** The full name of an adjustment, as in the batch tables. */
+export function adjustmentWords(a: Adjustment): string {
+  return ADJUSTMENT_NAMES[a];
+}
+
+/** A group's decision in the words of the batch tables. */
+export function batchDecisionWords(d: NonNullable<BatchResult['groups'][number]['decision']>): string {
+  return BATCH_DECISION_WORDS[d];
+}
+
+/** The label of a group as the batch tables show it (a visible stand-in for rows without one). */
+export { batchGroupLabel } from '../batch/render.js';

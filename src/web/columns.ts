@@ -4,13 +4,15 @@
  * The guess follows the command line's default (every other numeric column is a regressor).
  */
 import { isMissingCell, numericColumn, textColumn, type DataTable } from '../data/csv.js';
-import { chooseTimeIndex, readsAsTimeIndex } from '../data/time-index.js';
+import { chooseTimeIndex, isTimeLabel, readsAsTimeIndex } from '../data/time-index.js';
 import type { ColumnInfo } from './protocol.js';
 
 /**
  * Numeric and time-like flags of every column. A column is numeric when every cell is a number
  * or a missing value (with at least one number); time-like when its labels read as strictly
- * increasing periods (src/data/time-index.ts).
+ * increasing periods (src/data/time-index.ts); of time labels when every present cell reads as
+ * one, increasing or not (a time column of stacked series). `distinct` counts the groups the
+ * column would make as the grouping column.
  *
  * @example
  * ```ts
@@ -20,7 +22,8 @@ import type { ColumnInfo } from './protocol.js';
 export function summarizeColumns(table: DataTable): ColumnInfo[] {
   return table.headers.map((name) => {
     const cells = textColumn(table, name);
-    const timeLike = readsAsTimeIndex(cells.filter((c) => !isMissingCell(c))) !== null;
+    const present = cells.filter((c) => !isMissingCell(c));
+    const timeLike = readsAsTimeIndex(present) !== null;
     let numeric = true;
     try {
       numericColumn(table, name, { missingAsNaN: true });
@@ -28,8 +31,10 @@ export function summarizeColumns(table: DataTable): ColumnInfo[] {
     } catch {
       numeric = false;
     }
-    const missing = cells.filter((c) => isMissingCell(c)).length;
-    return { name, numeric, timeLike, missing };
+    const missing = cells.length - present.length;
+    const timeLabels = present.length > 0 && present.every((c) => isTimeLabel(c));
+    const distinct = new Set(cells.map((c) => c.trim()).filter((c) => c !== '')).size;
+    return { name, numeric, timeLike, missing, timeLabels, distinct };
   });
 }
 

@@ -1,9 +1,9 @@
 /**
  * The page's elements, found once by id, and the little state the page keeps between events: the
- * data last read and whether a result is on show. No computation.
+ * data last read (and its table's summary) and whether a result is on show. No computation.
  */
 import { byId } from './dom.js';
-import type { DataSource } from './protocol.js';
+import type { DataSource, TableSummary } from './protocol.js';
 
 /** The elements of the page (index.html), by role. */
 export const el = {
@@ -26,14 +26,21 @@ export const el = {
   xAll: byId<HTMLButtonElement>('x-all'),
   xNone: byId<HTMLButtonElement>('x-none'),
   intercept: byId<HTMLInputElement>('intercept'),
+  by: byId<HTMLSelectElement>('by'),
+  adjust: byId<HTMLSelectElement>('adjust'),
+  adjustField: byId('adjust-field'),
   time: byId<HTMLSelectElement>('time'),
+  timeBatchNote: byId('time-batch-note'),
   dropMissing: byId<HTMLInputElement>('drop-missing'),
+  dropMissingOff: byId('drop-missing-off'),
   frequency: byId<HTMLSelectElement>('frequency'),
   lag: byId<HTMLInputElement>('lag'),
   alpha: byId<HTMLInputElement>('alpha'),
   rho: byId<HTMLInputElement>('rho'),
   rhoField: byId('rho-field'),
+  rhoOff: byId('rho-off'),
   method: byId<HTMLSelectElement>('method'),
+  computeButton: byId<HTMLButtonElement>('compute'),
   stale: byId('stale'),
   results: byId('results'),
   resultsTitle: byId('results-title'),
@@ -46,5 +53,5 @@ export const el = {
   resultBody: byId('result-body'),
 };
 
-/** What the page remembers between events. */
-export const page: { data: DataSource | null; hasResult: boolean } = { data: null, hasResult: false };
+/** What the page remembers between events: the data last read, the summary of its table, whether a result is on show. */
+export const page: { data: DataSource | null; table: TableSummary | null; hasResult: boolean } = { data: null, table: null, hasResult: false };

@@ -5,7 +5,8 @@
  *
  * This file wires the page's events (keyboard and pointer alike: every control is a labelled form
  * element) to its parts: the elements and state (elements.ts), the worker (worker-client.ts),
- * reading the data (data-loading.ts) and choosing the model (model-form.ts).
+ * reading the data (data-loading.ts) and choosing the model (model-form.ts), with one test or one
+ * test per group of rows.
  */
 import demoCsv from '../../docs/demo/apiary.csv?raw';
 import { VERSION } from '../version.js';
@@ -14,7 +15,7 @@ import { byId, showError } from './dom.js';
 import { el, page } from './elements.js';
 import { cancel, connectWorker } from './worker-client.js';
 import { loadText, readFile, showTable } from './data-loading.js';
-import { compute, markStale, syncPickers, xInputs } from './model-form.js';
+import { changeGrouping, compute, markStale, syncPickers, xInputs } from './model-form.js';
 
 function hasFiles(event: DragEvent): boolean {
   return Array.from(event.dataTransfer?.types ?? []).includes('Files');
@@ -58,6 +59,7 @@ function wire(): void {
 
   el.yChoices.addEventListener('change', syncPickers);
   el.time.addEventListener('change', syncPickers);
+  el.by.addEventListener('change', changeGrouping);
   el.xAll.addEventListener('click', () => { for (const x of xInputs()) if (!x.disabled) x.checked = true; markStale(); });
   el.xNone.addEventListener('click', () => { for (const x of xInputs()) x.checked = false; markStale(); });
   el.form.addEventListener('input', markStale);

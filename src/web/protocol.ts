@@ -5,7 +5,9 @@
 import type { TimeFrequency } from '../data/time-index.js';
 import type { Alternative, DwTestResult } from '../inference/dw-test.js';
 import type { MethodChoice } from '../core/types.js';
-import type { ReportExtras } from './adapter.js';
+import type { Adjustment } from '../batch/adjust.js';
+import type { BatchResult } from '../batch/batch.js';
+import type { BatchDownloads, ReportExtras } from './adapter.js';
 
 /** How to read the CSV text ('auto' lets the library detect it). */
 export interface ReadOptions {
@@ -26,10 +28,19 @@ export interface DataSource extends ReadOptions {
 
 /** What the user chose for the model and the test. */
 export interface ModelChoice {
+  /** Grouping column: one exact test per group of rows with the same value (exactDwBatch), or null for the one test of all rows. */
+  by: string | null;
+  /** With a grouping column: the adjustment of the p-values over the groups, or null for none. */
+  adjust: Adjustment | null;
   y: string;
   x: string[];
   /** Time column (not a regressor), or null. */
   time: string | null;
+  /**
+   * With a grouping column and no time column: let the library's time-index rule choose the time
+   * column group by group (false: the rows of each group are consecutive periods).
+   */
+  timeRule: boolean;
   /** Drop rows with a missing value in a used column (they become gaps). */
   dropMissing: boolean;
   /** Frequency of ISO-date time labels instead of the inferred one, or null (inferred). */
@@ -56,6 +67,10 @@ export interface ColumnInfo {
   timeLike: boolean;
   /** Cells read as missing values. */
   missing?: number;
+  /** Every cell that is not missing reads as a time label (increasing or not): can be the time column within groups. */
+  timeLabels?: boolean;
+  /** Distinct values (after trimming; missing cells not counted): the groups it would make as the grouping column. */
+  distinct?: number;
 }
 
 /** Summary of a parsed table for the column pickers. */
@@ -85,4 +100,5 @@ export type Reply =
   | { kind: 'progress'; id: number; step: number; steps: number; stage: string }
   | { kind: 'inspected'; id: number; table: TableSummary }
   | { kind: 'result'; id: number; result: DwTestResult; extras: ReportExtras; failures: Partial<Record<OptionalPart, PlainError>> }
+  | { kind: 'batch-result'; id: number; batch: BatchResult; downloads: BatchDownloads }
   | { kind: 'error'; id: number; error: PlainError };

@@ -10,7 +10,7 @@ import { copyText, h, placeSvg, saveText, symbolText } from './dom.js';
 import type { OptionalPart, PlainError } from './protocol.js';
 import { atNumericalLimit, formatBound, formatLevel, formatNumber, formatProbability, formatStatistic } from './format.js';
 
-const ALTERNATIVE_WORDS = {
+export const ALTERNATIVE_WORDS = {
   positive: 'positive autocorrelation',
   negative: 'negative autocorrelation',
   'two-sided': 'autocorrelation of either sign',
@@ -24,8 +24,8 @@ const ZONE_WORDS: Record<BoundsZone['zone'], string> = {
   'reject-negative': 'd is above 4 - d_L: the bounds test rejects in favour of negative autocorrelation.',
 };
 
-/** A term and its value; the value carries `data-field` so that tests and users can find it. */
-function pair(term: string | Node, value: string, field?: string, extra?: string): HTMLElement[] {
+/** A term and its value; the value carries `data-field` so that tests and users can find it (also used by render-batch.ts). */
+export function pair(term: string | Node, value: string, field?: string, extra?: string): HTMLElement[] {
   return [h('dt', {}, term, extra ? h('span', { class: 'note' }, extra) : null), h('dd', {}, h('span', { class: 'num', 'data-field': field }, value))];
 }
 
@@ -36,22 +36,25 @@ function failureBox(e: PlainError): HTMLElement {
   return h('div', { class: 'error', 'data-code': e.code }, h('p', { class: 'error-message' }, e.message), e.hint ? h('p', { class: 'error-hint' }, e.hint) : null);
 }
 
-function card(title: string, ...content: Node[]): HTMLElement {
+/** A card with a heading. */
+export function card(title: string, ...content: Node[]): HTMLElement {
   return h('section', { class: 'card' }, h('h3', {}, title), ...content);
 }
 
-function dl(items: HTMLElement[][]): HTMLElement {
+/** A description list of term-value pairs. */
+export function dl(items: HTMLElement[][]): HTMLElement {
   const list = h('dl');
   for (const it of items) list.append(...it);
   return list;
 }
 
 /** A live region for short confirmations ("Copied."). */
-function statusLine(): HTMLElement {
+export function statusLine(): HTMLElement {
   return h('span', { class: 'note copy-status', role: 'status', 'aria-live': 'polite' });
 }
 
-function copyButton(label: string, text: () => string, status: HTMLElement, id?: string): HTMLButtonElement {
+/** A button that copies text to the clipboard and says so in `status`. */
+export function copyButton(label: string, text: () => string, status: HTMLElement, id?: string): HTMLButtonElement {
   const b = h('button', { type: 'button', class: 'secondary', id }, label);
   b.addEventListener('click', () => {
     void copyText(text()).then((ok) => {
@@ -61,7 +64,8 @@ function copyButton(label: string, text: () => string, status: HTMLElement, id?:
   return b;
 }
 
-function saveButton(label: string, fileName: string, type: string, text: string, id?: string): HTMLButtonElement {
+/** A button that offers text as a file to save (dom.ts saveText: a local blob, no network). */
+export function saveButton(label: string, fileName: string, type: string, text: string, id?: string): HTMLButtonElement {
   const b = h('button', { type: 'button', class: 'secondary', id }, label);
   b.addEventListener('click', () => saveText(fileName, type, text));
   return b;

@@ -7,6 +7,7 @@
 import DwWorker from './worker.ts?worker&inline';
 import { showError } from './dom.js';
 import { renderResult } from './render.js';
+import { renderBatchResult } from './render-batch.js';
 import type { PlainError, Reply, Request, TableSummary } from './protocol.js';
 import { el, page } from './elements.js';
 
@@ -110,6 +111,16 @@ function onReply(reply: Reply): void {
       finish();
       showError(el.resultError, null);
       el.resultBody.replaceChildren(renderResult(reply.result, reply.extras, rho, reply.failures));
+      el.resultBody.hidden = false;
+      el.stale.hidden = true;
+      page.hasResult = true;
+      el.resultsTitle.focus();
+      return;
+    }
+    case 'batch-result': {
+      finish();
+      showError(el.resultError, null);
+      el.resultBody.replaceChildren(renderBatchResult(reply.batch, reply.downloads));
       el.resultBody.hidden = false;
       el.stale.hidden = true;
       page.hasResult = true;

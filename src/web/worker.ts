@@ -2,11 +2,14 @@
  * The page's computing worker: reads the CSV, runs the library's exact test and asks the adapter
  * for the report parts, off the main thread so that the page stays responsive. It reports the
  * stage it is in before each step; the page shows that as progress and may end the worker to
- * cancel.
+ * cancel. With a grouping column it runs the library's batch (one exact test per group) instead,
+ * reporting the groups done as they finish, and renders the batch table in the formats the
+ * command line writes.
  */
 import { parseCsv, numericColumn, textColumn, type CsvOptions, type DataTable } from '../data/csv.js';
 import type { DwTestInput } from '../inference/dw-test.js';
-import { figureSvg, markdownReport, paragraphFor, powerAt, runTest, textReport, type ReportExtras } from './adapter.js';
+import type { BatchInput } from '../batch/batch.js';
+import { batchDownloads, figureSvg, markdownReport, paragraphFor, powerAt, runBatch, runTest, textReport, type ReportExtras } from './adapter.js';
 import { guessColumns, summarizeColumns } from './columns.js';
 import { plainError } from './plain-error.js';
 import type { DataSource, ModelChoice, OptionalPart, PlainError, Reply, Request, TableSummary } from './protocol.js';
@@ -46,7 +49,42 @@ function inspect(id: number, data: DataSource): void {
   post({ kind: 'inspected', id, table: summary });
 }
 
+/** Progress of a batch is posted at most this often (and always for the last group). */
+const BATCH_PROGRESS_MS = 100;
+
+/** One exact test per group of rows, as exactDwBatch runs it; the options a batch does not have are not sent by the page. */
+function computeBatch(id: number, data: DataSource, model: ModelChoice & { by: string }): void {
+  post({ kind: 'progress', id, step: 0, steps: 1, stage: 'Reading the table' });
+  const table = readTable(data);
+  let last = 0;
+  const input: BatchInput = {
+    table,
+    by: model.by,
+    y: model.y,
+    x: model.x,
+    lag: model.lag,
+    intercept: model.intercept,
+    alternative: model.alternative,
+    alpha: model.alpha,
+    method: model.method,
+    onProgress: (done, total) => {
+      const now = performance.now();
+      if (done < total && now - last < BATCH_PROGRESS_MS) return;
+      last = now;
+      post({ kind: 'progress', id, step: done, steps: total, stage: `Testing the groups: ${done} of ${total} done` });
+    },
+  };
+  if (model.time !== null) input.time = model.time;
+  else if (!model.timeRule) input.timeColumn = false;
+  if (model.frequency !== null) input.frequency = model.frequency;
+  if (model.adjust !== null) input.adjust = model.adjust;
+  const batch = runBatch(input);
+  post({ kind: 'progress', id, step: 1, steps: 1, stage: 'Writing the tables' });
+  post({ kind: 'batch-result', id, batch, downloads: batchDownloads(batch) });
+}
+
 function compute(id: number, data: DataSource, model: ModelChoice): void {
+  if (model.by !== null) { computeBatch(id, data, { ...model, by: model.by }); return; }
   const steps = model.rho === null ? 4 : 5;
   let step = 0;
   const stage = (text: string): void => post({ kind: 'progress', id, step: step++, steps, stage: text });

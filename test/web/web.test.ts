@@ -25,11 +25,8 @@ import { formatBound, formatProbability, formatStatistic } from '../../src/web/f
 import { guessColumns, summarizeColumns } from '../../src/web/columns.js';
 import { pageHint, plainError } from '../../src/web/plain-error.js';
 import { chromiumPath } from '../helpers/browser.js';
+import { FLAGS, expectShown } from '../helpers/page.js';
 
-const FLAGS = [
-  '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
-  '--disable-component-update', '--disable-sync',
-];
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const demoCsv = readFileSync(join(root, 'docs', 'demo', 'apiary.csv'), 'utf8');
 
@@ -87,20 +84,6 @@ async function compute(page: Page): Promise<void> {
 
 async function field(page: Page, name: string): Promise<string> {
   return (await page.locator(`[data-field="${name}"]`).first().textContent())?.trim() ?? '';
-}
-
-/**
- * The displayed number agrees with the library's value to the precision shown: within half a unit
- * of its last digit (decimals or e-notation). It must also show enough digits to be a real check.
- */
-function expectShown(text: string, value: number, finest = 5e-4): void {
-  const m = /^(-?\d+(?:\.(\d+))?)(?:e(-?\d+))?$/.exec(text);
-  expect(m, `'${text}' is not a plain number`).not.toBeNull();
-  const decimals = m![2]?.length ?? 0;
-  const exponent = m![3] === undefined ? 0 : Number(m![3]);
-  const halfUnit = 0.5 * 10 ** (exponent - decimals);
-  expect(halfUnit).toBeLessThanOrEqual(Math.max(finest, 5e-3 * Math.abs(value)));
-  expect(Math.abs(Number(text) - value)).toBeLessThanOrEqual(halfUnit * (1 + 1e-9));
 }
 
 /** The library's result as JSON (what `exact-dw test --format json` prints), for the demo data. */
