@@ -95,10 +95,13 @@ export function defaultWorkers(): number {
 }
 
 /**
- * Lines of a file up to which a batch runs in one thread unless threads are asked for explicitly:
- * starting a thread costs about as much as testing a few thousand rows (bench/batch.ts).
+ * Lines of a file up to which a batch runs in one thread unless threads are asked for explicitly.
+ * A worker thread starts cold (its code loads and compiles again), its rows must be handed over,
+ * and one thread already keeps a second core partly busy with garbage collection and compilation;
+ * on the two-core machine of docs/batch-performance.md two threads were slower than one on both
+ * benchmark files (156 000 and 12 500 lines) and no faster on a file of 624 000 lines.
  */
-export const THREAD_MIN_ROWS = 40_000;
+export const THREAD_MIN_ROWS = 1_000_000;
 
 /**
  * The batch of a CSV text, with the groups split among `workers` threads (1: all in this thread;
