@@ -100,7 +100,7 @@ export class DesignCache {
 
   constructor(private readonly options: ProblemOptions) {}
 
-  /** Number of distinct designs seen. */
+  /** Number of distinct designs prepared (a design that could not be prepared is not counted). */
   get size(): number { return this.count; }
 
   /**
@@ -119,13 +119,15 @@ export class DesignCache {
     if (entry) {
       this.hits++;
     } else {
-      entry = { bytes, id: this.count++ };
+      entry = { bytes, id: -1 };
       bucket.push(entry);
       try {
         const problem = prepareDesign(design, opts, this.difference(n, times));
         const distribution = new RememberingDistribution(problem.distribution.source, problem.distribution.options);
         const shared: DwProblem = { ...problem, distribution, warnings: [...problem.warnings] };
         entry.reuse = { problem: shared, bounds: (nn, kPrime, level) => this.bounds(nn, kPrime, level) };
+        // numbered once prepared: the numbers are those of the null distributions, without gaps
+        entry.id = this.count++;
       } catch (err) {
         entry.error = err;
       }

@@ -118,6 +118,20 @@ describe('exactDwBatch', () => {
     expect(batch.notes).toContainEqual({ code: 'BATCH_GROUPS_FAILED', failed: 1, groups: 7 });
   });
 
+  it('a design that cannot be prepared (rank-deficient) fails its group and is not counted among the designs', () => {
+    const cols = {
+      shop: [...Array(10).fill('a'), ...Array(10).fill('b'), ...Array(10).fill('c')],
+      y: Array.from({ length: 30 }, (_, i) => Math.sin(1.7 * i) + 0.1 * i),
+      z: Array.from({ length: 30 }, (_, i) => Math.cos(0.9 * i)),
+      // shop b: w is twice z
+      w: Array.from({ length: 30 }, (_, i) => (i >= 10 && i < 20 ? 2 * Math.cos(0.9 * i) : Math.sin(0.4 * i))),
+    };
+    const b = exactDwBatch({ columns: cols, by: 'shop', y: 'y', x: ['z', 'w'] });
+    expect(b.groups.map((g) => g.error?.code ?? null)).toEqual([null, 'RANK_DEFICIENT', null]);
+    expect(b.groups.map((g) => g.design)).toEqual([0, null, 1]);
+    expect(b.summary).toMatchObject({ groups: 3, tested: 2, failed: 1, designs: 2 });
+  });
+
   it('a bad cell fails only its group, naming the data row; rows without a group label are counted', () => {
     const text = shopData().replace(/\ne,5,[^,]+,/, '\ne,5,oops,').replace(/\nf,2,/, '\n,2,');
     const b = exactDwBatch({ table: parseCsv(text, { source: "'shops.csv'" }), by: 'shop', y: 'sales', x: ['price'], time: 'week' });
