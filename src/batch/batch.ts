@@ -6,7 +6,8 @@
  * message and the batch goes on; file-level problems (a column that does not exist) throw.
  */
 import { DwError, isDwError, type DwErrorCode, type DwSuggestion } from '../errors.js';
-import { columnIndex, isTextColumn, parseCell, type DataTable } from '../data/csv.js';
+import { columnIndex, isMissingCell, isTextColumn, parseCell, type DataTable } from '../data/csv.js';
+import type { DroppedRows } from '../inference/data-input.js';
 import type { MethodChoice } from '../core/types.js';
 import type { Alternative } from '../core/alternative.js';
 import { checkAlpha, checkAlternative } from '../core/alternative.js';
@@ -47,6 +48,13 @@ export interface BatchInput {
   timeColumn?: false;
   /** Frequency of ISO-date labels, instead of the one inferred for each group. */
   frequency?: TimeFrequency;
+  /**
+   * Drop, in each group, the rows with a missing value in y, a regressor or the time column (an
+   * empty cell or a missing-value code such as NA); they are listed in the group's `droppedRows`
+   * and become gaps in its time (without a time column, the group's row order is its time).
+   * Without it such a cell fails its group.
+   */
+  dropMissing?: boolean;
   /** Adjust the p-values over the family of groups tested (default none). */
   adjust?: Adjustment;
   /** Alternative (default `positive`). */
@@ -104,6 +112,8 @@ export interface BatchGroup {
   errorBound: number | null;
   /** Zone of the bounds test, when the bounds apply and critical values were asked for. */
   zone: string | null;
+  /** Rows of this group dropped for a missing value (1-based data rows of the file), when rows were dropped. */
+  droppedRows: DroppedRows | null;
   /** Number of the distinct design this group was tested on (groups with the same number shared one null distribution). */
   design: number | null;
   warnings: DwWarning[];
@@ -227,7 +237,7 @@ export interface BatchColumns {
  * batchColumns(parseCsv('shop,week,y,price\na,1,2,3\n'), { by: 'shop', y: 'y', time: 'week' }).x; // ['price']
  * ```
  */
-export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 'x' | 'time' | 'timeColumn'>): BatchColumns {
+export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 'x' | 'time' | 'timeColumn' | 'dropMissing'>): BatchColumns {
   for (const [role, name] of [['grouping', input.by], ['y', input.y], ['time', input.time]] as const) {
     if (name !== undefined) {
       if (typeof name !== 'string' || name === '') throw new DwError('OPTION_VALUE', `The ${role} column needs a name.`, 'Name a column of the data.');
@@ -263,7 +273,7 @@ export function batchColumns(table: DataTable, input: Pick<BatchInput, 'by' | 'y
  * every group of two or more rows, and that has a time-like name or holds quarter, month or date
  * labels. Null when there is none.
  */
-function detectGroupTime(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 'x'>): string | null {
+function detectGroupTime(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 'x' | 'dropMissing'>): string | null {
   const listed = new Set(input.x ?? []);
   const { rows } = groupRows(table, input.by);
   for (const h of table.headers) {
@@ -274,7 +284,9 @@ function detectGroupTime(table: DataTable, input: Pick<BatchInput, 'by' | 'y' | 
     let seen = false;
     for (const g of rows) {
       if (g.length < 2) continue;
-      const format = readsAsTimeIndex(Array.from(g, (r) => table.rows[r][j]));
+      // with dropMissing the rule reads the complete rows only (as the single test's rule does)
+      const cells = Array.from(g, (r) => table.rows[r][j]);
+      const format = readsAsTimeIndex(input.dropMissing === true ? cells.filter((c) => !isMissingCell(c)) : cells);
       if (format === null) { ok = false; break; }
       seen = true;
       if (format !== 'integer') calendar = true;
@@ -296,7 +308,7 @@ function groupError(err: unknown): BatchGroupError {
 }
 
 function failed(group: string, rows: number, error: BatchGroupError, n: number | null = null, k: number | null = null): BatchGroup {
-  return { group, rows, n, k, d: null, pValue: null, pAdjusted: null, decision: null, critical: null, method: null, errorBound: null, zone: null, design: null, warnings: [], error };
+  return { group, rows, n, k, d: null, pValue: null, pAdjusted: null, decision: null, critical: null, method: null, errorBound: null, zone: null, droppedRows: null, design: null, warnings: [], error };
 }
 
 /**
@@ -325,11 +337,32 @@ export function testGroups(
   // batch) read them once
   let lastLabels: string[] = [];
   let lastPeriods: Float64Array | undefined;
+  const drop = input.dropMissing === true;
   for (let g = from; g < to; g++) {
     const label = grouping.labels[g];
-    const rows = grouping.rows[g];
-    const n = rows.length;
+    const all = grouping.rows[g];
+    const size = all.length;
     try {
+      // with dropMissing, the rows with a missing value in a used column leave the group; the
+      // positions kept (within the group) become its time when no time column is named
+      let rows: ArrayLike<number> = all;
+      let kept: number[] | null = null;
+      let droppedRows: DroppedRows | null = null;
+      if (drop) {
+        const keep: number[] = [];
+        const gone: number[] = [];
+        for (let i = 0; i < size; i++) {
+          const cells = table.rows[all[i]];
+          const missing = isMissingCell(cells[jy]) || jx.some((j) => isMissingCell(cells[j])) || (jt >= 0 && isMissingCell(cells[jt]));
+          if (missing) gone.push(all[i] + 1); else keep.push(i);
+        }
+        if (gone.length > 0) {
+          kept = keep;
+          rows = keep.map((i) => all[i]);
+          droppedRows = { count: gone.length, rows: gone };
+        }
+      }
+      const n = rows.length;
       const y = new Float64Array(n);
       const xs = columns.x.map(() => new Float64Array(n));
       for (let i = 0; i < n; i++) {
@@ -350,13 +383,18 @@ export function testGroups(
           lastLabels = labels;
         }
         times = lastPeriods;
+      } else if (kept !== null) {
+        times = Float64Array.from(kept);
       }
       const { id, reuse } = cache.lookup(x, n, times);
       const quick = input.critical === true ? null : seriesAnswer(y, reuse, input.alternative ?? 'positive', input.alpha ?? 0.05, times, () => cache.ceiling(id, reuse));
+      // the group's own note, as the single test gives it
+      const dropNote: DwWarning[] = droppedRows ? [{ code: 'ROWS_DROPPED', count: droppedRows.count, rows: droppedRows.rows, asGaps: true }] : [];
       if (quick) {
+        quick.warnings.push(...dropNote);
         out.push({
-          group: label, rows: n, n: quick.n, k: quick.k, d: quick.d, pValue: quick.pValue, pAdjusted: null, decision: quick.decision,
-          critical: null, method: quick.method, errorBound: quick.errorBound, zone: null, design: id, warnings: quick.warnings, error: null,
+          group: label, rows: size, n: quick.n, k: quick.k, d: quick.d, pValue: quick.pValue, pAdjusted: null, decision: quick.decision,
+          critical: null, method: quick.method, errorBound: quick.errorBound, zone: null, droppedRows, design: id, warnings: quick.warnings, error: null,
         });
         onProgress?.(g - from + 1);
         continue;
@@ -368,7 +406,7 @@ export function testGroups(
       const valid = result.dValid;
       out.push({
         group: label,
-        rows: n,
+        rows: size,
         n: result.n,
         k: result.k,
         d: result.d,
@@ -379,12 +417,13 @@ export function testGroups(
         method: result.method,
         errorBound: result.errorBound,
         zone: result.bounds ? result.bounds.zone : null,
+        droppedRows,
         design: id,
-        warnings: result.warnings,
+        warnings: [...result.warnings, ...dropNote],
         error: null,
       });
     } catch (err) {
-      out.push(failed(label, n, groupError(err)));
+      out.push(failed(label, size, groupError(err)));
     }
     onProgress?.(g - from + 1);
   }
@@ -431,6 +470,8 @@ export function finishBatch(
   if (input.adjust !== undefined && notValid > 0) notes.push({ code: 'BATCH_NOT_VALID_EXCLUDED', excluded: notValid });
   if (failedCount > 0) notes.push({ code: 'BATCH_GROUPS_FAILED', failed: failedCount, groups: groups.length });
   if (columns.timeDetected && columns.time !== null) notes.push({ code: 'BATCH_TIME_DETECTED', column: columns.time });
+  const withDrops = groups.filter((g) => g.droppedRows !== null);
+  if (withDrops.length > 0) notes.push({ code: 'BATCH_ROWS_DROPPED', rows: withDrops.reduce((t, g) => t + g.droppedRows!.count, 0), groups: withDrops.length });
   return {
     by: columns.by,
     y: columns.y,
@@ -463,7 +504,7 @@ export function finishBatch(
  * checkBatchOptions({ adjust: 'bonferroni' as never }); // throws OPTION_VALUE
  * ```
  */
-export function checkBatchOptions(input: Pick<BatchInput, 'adjust' | 'alternative' | 'alpha' | 'lag'>): void {
+export function checkBatchOptions(input: Pick<BatchInput, 'adjust' | 'alternative' | 'alpha' | 'lag' | 'dropMissing'>): void {
   checkAlternative(input.alternative ?? 'positive');
   checkAlpha(input.alpha ?? 0.05);
   if (input.adjust !== undefined && !(ADJUSTMENTS as readonly string[]).includes(input.adjust)) {
@@ -472,6 +513,9 @@ export function checkBatchOptions(input: Pick<BatchInput, 'adjust' | 'alternativ
   const lag = input.lag ?? 1;
   if (!Number.isInteger(lag) || lag < 1) {
     throw new DwError('LAG_INVALID', `The lag must be a whole number of at least 1 (got ${lag}).`, 'Use 1 for consecutive periods.');
+  }
+  if (input.dropMissing !== undefined && typeof input.dropMissing !== 'boolean') {
+    throw new DwError('OPTION_VALUE', `dropMissing must be true or false (got ${String(input.dropMissing)}).`, 'Pass true to drop the rows with missing values, or leave it out.');
   }
 }
 

@@ -39,13 +39,16 @@ const num = (x: number | null): string => (x === null ? '' : String(x));
  * ```
  */
 export function renderBatchCsv(batch: BatchResult): string {
-  const head = ['group', 'n', 'k', 'd', 'p_value', 'p_adjusted', 'decision', 'd_lower_critical', 'd_upper_critical', 'error_bound', 'bounds_zone', 'design', 'error_code', 'error_message'];
+  // when rows were dropped, one more column lists each group's dropped data rows
+  const dropped = batch.groups.some((g) => g.droppedRows !== null);
+  const head = ['group', 'n', 'k', 'd', 'p_value', 'p_adjusted', 'decision', 'd_lower_critical', 'd_upper_critical', 'error_bound', 'bounds_zone', 'design', 'error_code', 'error_message', ...(dropped ? ['rows_dropped'] : [])];
   const lines = [head.join(',')];
   for (const g of batch.groups) {
     lines.push([
       csvCell(g.group), num(g.n), num(g.k), num(g.d), num(g.pValue), num(g.pAdjusted), g.decision ?? 'error',
       num(g.critical?.lower ?? null), num(g.critical?.upper ?? null), num(g.errorBound), g.zone ?? '', num(g.design),
       g.error?.code ?? '', csvCell(g.error ? `${g.error.message} ${g.error.hint}`.trim() : ''),
+      ...(dropped ? [g.droppedRows ? g.droppedRows.rows.join(' ') : ''] : []),
     ].join(','));
   }
   return lines.join('\n') + '\n';
@@ -158,7 +161,7 @@ export function renderBatchLatex(batch: BatchResult): string {
 export function renderBatchJson(batch: BatchResult): string {
   const groups = batch.groups.map((g) => ({
     group: g.group, rows: g.rows, n: g.n, k: g.k, d: g.d, pValue: g.pValue, pAdjusted: g.pAdjusted, decision: g.decision,
-    critical: g.critical, method: g.method, errorBound: g.errorBound, boundsZone: g.zone, design: g.design,
+    critical: g.critical, method: g.method, errorBound: g.errorBound, boundsZone: g.zone, droppedRows: g.droppedRows, design: g.design,
     warnings: g.warnings, error: g.error,
   }));
   return JSON.stringify({

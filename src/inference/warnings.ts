@@ -41,7 +41,9 @@ export type BatchNote =
   | { code: 'BATCH_NOT_VALID_EXCLUDED'; excluded: number }
   | { code: 'BATCH_ADJUSTED'; method: 'holm' | 'bh'; family: number }
   /** No time column was named; this column was taken as the time index of every group by the time-index rule. */
-  | { code: 'BATCH_TIME_DETECTED'; column: string };
+  | { code: 'BATCH_TIME_DETECTED'; column: string }
+  /** Rows with a missing value were dropped (in `groups` groups, `rows` rows in all); each group lists its own. */
+  | { code: 'BATCH_ROWS_DROPPED'; rows: number; groups: number };
 
 /** The codes of {@link DwWarning}. */
 export type DwWarningCode = DwWarning['code'];

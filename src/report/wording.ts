@@ -140,6 +140,8 @@ export function noteText(note: Note): string {
       return `${note.excluded} group${note.excluded === 1 ? ' has' : 's have'} a lagged dependent variable among the regressors, so d is not a valid test there; ${note.excluded === 1 ? 'it is' : 'they are'} left out of the adjusted family.`;
     case 'BATCH_TIME_DETECTED':
       return `No time column was named, so '${note.column}' was taken as the time index of every group by the time-index rule (it is not a regressor); d is taken only between observations of a group exactly the lag apart in it. Name the time column, or turn the rule off, to choose otherwise.`;
+    case 'BATCH_ROWS_DROPPED':
+      return `${note.rows} row${note.rows === 1 ? '' : 's'} with a missing value in y, a regressor or the time ${note.rows === 1 ? 'was' : 'were'} dropped, in ${note.groups} group${note.groups === 1 ? '' : 's'}; each group lists its own (droppedRows), and within a group a dropped row is a gap in time: no difference spans it.`;
     case 'BATCH_ADJUSTED':
       return `p-values adjusted over the ${note.family} groups tested by ${ADJUSTMENT_NAMES[note.method]}; decisions use the adjusted p-values.`;
   }

@@ -32,7 +32,6 @@ export const el = {
   time: byId<HTMLSelectElement>('time'),
   timeBatchNote: byId('time-batch-note'),
   dropMissing: byId<HTMLInputElement>('drop-missing'),
-  dropMissingOff: byId('drop-missing-off'),
   frequency: byId<HTMLSelectElement>('frequency'),
   lag: byId<HTMLInputElement>('lag'),
   alpha: byId<HTMLInputElement>('alpha'),

@@ -6,8 +6,8 @@
  *
  * With a grouping column the page tests each group separately (the library's exactDwBatch): the
  * adjustment of the p-values appears, the time column may be left to the time-index rule group by
- * group, and the options a batch does not have (dropping rows, the power at rho) are switched off
- * with the reason beside them.
+ * group, rows with missing values may be dropped in each group, and the option a batch does not have (the power at rho) is switched off
+ * * with the reason beside it.
  */
 import type { Adjustment } from '../batch/adjust.js';
 import type { TimeFrequency } from '../data/time-index.js';
@@ -91,8 +91,6 @@ function timeRuleChosen(): boolean {
 /** Show the controls of the chosen mode (one test, or one test per group), with the reasons for those switched off. */
 function showMode(): void {
   el.adjustField.hidden = !batchMode;
-  el.dropMissing.disabled = batchMode;
-  el.dropMissingOff.hidden = !batchMode;
   el.rho.disabled = batchMode;
   el.rhoOff.hidden = !batchMode;
   el.timeBatchNote.hidden = !batchMode;
@@ -178,7 +176,7 @@ function readModel(): ModelChoice | PlainError {
     x: xInputs().filter((x) => x.checked).map((x) => x.value),
     time: el.time.value === '' ? null : el.time.value,
     timeRule: timeRuleChosen(),
-    dropMissing: !batchMode && el.dropMissing.checked,
+    dropMissing: el.dropMissing.checked,
     frequency: el.frequency.value === '' ? null : el.frequency.value as TimeFrequency,
     lag,
     intercept: el.intercept.checked,

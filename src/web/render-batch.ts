@@ -72,16 +72,29 @@ function groupRow(g: BatchGroup, b: BatchResult): HTMLTableRowElement {
         h('span', { class: 'error-message' }, g.error.message), ' ',
         h('span', { class: 'error-hint' }, pageHint(g.error.hint, g.error.suggest))),
       h('td', { 'data-field': 'decision' }, `not tested (${g.error.code})`));
+    if (anyDropped(b)) row.append(droppedCell(g));
     return row;
   }
   row.append(h('td', { class: 'num', 'data-field': 'd' }, g.d === null ? NO_VALUE : formatStatistic(g.d)), pCell(g.pValue, g, b, 'p-value'));
   if (b.adjust) row.append(pCell(g.pAdjusted, g, b, 'p-adjusted'));
   row.append(h('td', { 'data-field': 'decision' }, g.decision ? batchDecisionWords(g.decision) : NO_VALUE));
+  if (anyDropped(b)) row.append(droppedCell(g));
   return row;
 }
 
+function anyDropped(b: BatchResult): boolean {
+  return b.groups.some((g) => g.droppedRows !== null);
+}
+
+/** The data rows a group lost to missing values (the first 10, then how many more). */
+function droppedCell(g: BatchGroup): HTMLTableCellElement {
+  const d = g.droppedRows;
+  const text = d === null ? NO_VALUE : `${d.rows.slice(0, 10).join(', ')}${d.count > 10 ? `, and ${d.count - 10} more` : ''}`;
+  return h('td', { 'data-field': 'rows-dropped' }, text);
+}
+
 function groupTable(b: BatchResult): HTMLElement {
-  const heads = ['group', 'n', 'k', 'd', 'p-value', ...(b.adjust ? [`adjusted p-value (${SHORT_ADJUSTMENT[b.adjust]})`] : []), 'decision'];
+  const heads = ['group', 'n', 'k', 'd', 'p-value', ...(b.adjust ? [`adjusted p-value (${SHORT_ADJUSTMENT[b.adjust]})`] : []), 'decision', ...(anyDropped(b) ? ['data rows dropped'] : [])];
   const caption = `Exact Durbin-Watson test of ${b.y} in each of the ${b.summary.groups} groups of ${b.by}`
     + (b.adjust ? `; decisions on the ${SHORT_ADJUSTMENT[b.adjust]}-adjusted p-values` : '; p-values not adjusted for multiple testing');
   return h('section', { class: 'panel', id: 'batch-table-panel' }, h('h3', {}, 'Every group'),

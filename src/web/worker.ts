@@ -52,7 +52,7 @@ function inspect(id: number, data: DataSource): void {
 /** Progress of a batch is posted at most this often (and always for the last group). */
 const BATCH_PROGRESS_MS = 100;
 
-/** One exact test per group of rows, as exactDwBatch runs it; the options a batch does not have are not sent by the page. */
+/** One exact test per group of rows, as exactDwBatch runs it; the option a batch does not have (power) is not sent by the page. */
 function computeBatch(id: number, data: DataSource, model: ModelChoice & { by: string }): void {
   post({ kind: 'progress', id, step: 0, steps: 1, stage: 'Reading the table' });
   const table = readTable(data);
@@ -78,6 +78,7 @@ function computeBatch(id: number, data: DataSource, model: ModelChoice & { by: s
   else if (!model.timeRule) input.timeColumn = false;
   if (model.frequency !== null) input.frequency = model.frequency;
   if (model.adjust !== null) input.adjust = model.adjust;
+  if (model.dropMissing) input.dropMissing = true;
   const batch = runBatch(input);
   post({ kind: 'progress', id, step: 1, steps: 1, stage: 'Writing the tables' });
   post({ kind: 'batch-result', id, batch, downloads: batchDownloads(batch) });

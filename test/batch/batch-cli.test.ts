@@ -73,6 +73,30 @@ describe('exact-dw batch', () => {
     expect(readFileSync(out, 'utf8')).toMatch(/^\| series/);
   });
 
+  it('--drop-missing: a missing cell leaves its row, listed per group in JSON and in the CSV\'s rows_dropped column; the numbers are the library\'s', async () => {
+    const lines = stations().trimEnd().split('\n');
+    const hole = lines.findIndex((l) => l.startsWith('st3,7,'));
+    lines[hole] = lines[hole].replace(/^st3,7,[^,]+,/, 'st3,7,NA,');
+    const file = join(dir, 'stations-hole.csv');
+    writeFileSync(file, lines.join('\n') + '\n');
+    const strict = JSON.parse((await cli('batch', file, '--by', 'station', '--y', 'flow', '--x', 'rain', '--time', 'period', '--format', 'json')).out);
+    expect(strict.groups.find((g: { group: string }) => g.group === 'st3').error.code).toBe('CELL_EMPTY');
+    const r = await cli('batch', file, '--by', 'station', '--y', 'flow', '--x', 'rain', '--time', 'period', '--drop-missing', '--format', 'json');
+    expect(r.status).toBe(0);
+    const j = JSON.parse(r.out);
+    const lib = exactDwBatch({ table: parseCsv(lines.join('\n') + '\n', { source: `'${file}'` }), by: 'station', y: 'flow', x: ['rain'], time: 'period', dropMissing: true });
+    const st3 = j.groups.find((g: { group: string }) => g.group === 'st3');
+    expect(st3.droppedRows).toEqual({ count: 1, rows: [hole] });
+    expect(st3.n).toBe(15);
+    expect(st3.pValue).toBe(lib.groups.find((g) => g.group === 'st3')!.pValue);
+    expect(j.notes.map((n: { code: string }) => n.code)).toContain('BATCH_ROWS_DROPPED');
+    const csv = await cli('batch', file, '--by', 'station', '--y', 'flow', '--x', 'rain', '--time', 'period', '--drop-missing', '--format', 'csv');
+    const table = parseCsv(csv.out);
+    expect(table.headers.at(-1)).toBe('rows_dropped');
+    expect(table.rows.find((row) => row[0] === 'st3')!.at(-1)).toBe(String(hole));
+    expect(table.rows.find((row) => row[0] === 'st1')!.at(-1)).toBe('');
+  });
+
   it('file-level problems are one line and exit 2', async () => {
     for (const [argv, code] of [
       [[data, '--by', 'site', '--y', 'flow'], 'COLUMN_UNKNOWN'],

@@ -132,6 +132,48 @@ describe('exactDwBatch', () => {
     expect(b.summary).toMatchObject({ groups: 3, tested: 2, failed: 1, designs: 2 });
   });
 
+  it('dropMissing: each group loses its incomplete rows (listed, file rows) and is the single test with dropMissing on its rows, bit for bit; without it the group fails', () => {
+    // shop b: no sales in week 5; shop e: no price in week 9 and no week label in row 12 of e
+    const lines = shopData().trimEnd().split('\n');
+    const at = (shop: string, week: number) => lines.findIndex((l) => l.startsWith(`${shop},${week},`));
+    const holes = [at('b', 5), at('e', 9), at('e', 12)];
+    lines[holes[0]] = lines[holes[0]].replace(/^b,5,[^,]+,/, 'b,5,NA,');
+    lines[holes[1]] = lines[holes[1]].replace(/,[^,]+$/, ',');
+    lines[holes[2]] = lines[holes[2]].replace(/^e,12,/, 'e,,');
+    const text = lines.join('\n') + '\n';
+    const t = parseCsv(text, { source: "'shops.csv'" });
+    for (const time of ['week', undefined] as const) {
+      const strict = exactDwBatch({ table: t, by: 'shop', y: 'sales', x: ['price'], time: time ?? 'week' });
+      expect(strict.groups.filter((g) => g.error !== null).map((g) => [g.group, g.error!.code])).toEqual([['b', 'CELL_EMPTY'], ['e', 'CELL_EMPTY'], ['g', 'TOO_FEW_ROWS']]);
+      // without a time column the rows of a group are its time; the week labels are left out of the model
+      const input = time === 'week' ? { time: 'week' } : { timeColumn: false as const };
+      const b = exactDwBatch({ table: t, by: 'shop', y: 'sales', x: ['price'], ...input, dropMissing: true });
+      for (const g of b.groups) {
+        if (g.group === 'g') continue;
+        const rows = groupRows(t, 'shop').rows[groupRows(t, 'shop').labels.indexOf(g.group)];
+        const cellsOf = (col: string) => Array.from(rows, (r) => t.rows[r][t.headers.indexOf(col)]);
+        const num = (v: string) => (v.trim() === '' || v.trim() === 'NA' ? NaN : Number(v));
+        const one = exactDwTest({
+          y: cellsOf('sales').map(num), x: { price: cellsOf('price').map(num) }, dropMissing: true,
+          ...(time === 'week' ? { time: { labels: cellsOf('week') } } : { timeColumn: false }),
+        });
+        expect(g.error, g.group).toBeNull();
+        expect(g.d, g.group).toBe(one.d);
+        expect(g.pValue, g.group).toBe(one.pValue);
+        expect(g.n, g.group).toBe(one.n);
+        // the single test counts rows within its own input; the batch names the file's data rows
+        expect(g.droppedRows?.count ?? 0, g.group).toBe(one.droppedRows?.count ?? 0);
+      }
+      expect(b.groups.find((g) => g.group === 'b')!.droppedRows).toEqual({ count: 1, rows: [holes[0]] });
+      // the missing week label counts only when the week is the time column
+      const eRows = time === 'week' ? [holes[1], holes[2]] : [holes[1]];
+      expect(b.groups.find((g) => g.group === 'e')!.droppedRows).toEqual({ count: eRows.length, rows: eRows });
+      expect(b.groups.find((g) => g.group === 'e')!.warnings).toContainEqual({ code: 'ROWS_DROPPED', count: eRows.length, rows: eRows, asGaps: true });
+      expect(b.notes).toContainEqual({ code: 'BATCH_ROWS_DROPPED', rows: 1 + eRows.length, groups: 2 });
+      expect(noteText(b.notes.find((n) => n.code === 'BATCH_ROWS_DROPPED')!)).toMatch(new RegExp(`^${1 + eRows.length} rows with a missing value .* in 2 groups; .*gap in time`));
+    }
+  });
+
   it('a bad cell fails only its group, naming the data row; rows without a group label are counted', () => {
     const text = shopData().replace(/\ne,5,[^,]+,/, '\ne,5,oops,').replace(/\nf,2,/, '\n,2,');
     const b = exactDwBatch({ table: parseCsv(text, { source: "'shops.csv'" }), by: 'shop', y: 'sales', x: ['price'], time: 'week' });

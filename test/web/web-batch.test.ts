@@ -235,11 +235,10 @@ describe('the page tests each group of a stacked file separately', () => {
     expect(await page.locator('#by option[value="station"]').textContent()).toBe('station (6 groups)');
     expect(await page.locator('#adjust-field').isHidden()).toBe(true);
     expect(await page.locator('#drop-missing').isEnabled()).toBe(true);
-    expect(await page.locator('#drop-missing-off').isHidden()).toBe(true);
     await page.selectOption('#by', 'station');
     expect(await page.locator('#adjust-field').isVisible()).toBe(true);
-    expect(await page.locator('#drop-missing').isDisabled()).toBe(true);
-    expect(await page.locator('#drop-missing-off').isVisible()).toBe(true);
+    // rows with missing values can be dropped in each group too
+    expect(await page.locator('#drop-missing').isEnabled()).toBe(true);
     expect(await page.locator('#rho').isDisabled()).toBe(true);
     expect(await page.locator('#rho-off').isVisible()).toBe(true);
     // the grouping column cannot also be y, a regressor or the time column
@@ -323,6 +322,29 @@ describe('the page tests each group of a stacked file separately', () => {
     expect(await err.locator('.error-message').textContent()).toBe((thrown as Error).message);
     expect(await page.locator('#result-body').isHidden()).toBe(true);
     expect((await err.textContent()) ?? '').not.toMatch(/DwError|Error:|\bat \S+:\d+:\d+|\.ts\b|\.js\b/);
+    await page.close();
+  });
+
+  it('dropping rows with missing values in each group: the rows listed in the table, and every group as the library has it', async () => {
+    // Brackwater loses its 2010 rain (NA) and Dunmere its 2012 temperature (empty)
+    const holed = CSV.replace(/^(Brackwater,2010,)[^,]+,/m, '$1NA,').replace(/^(Dunmere,2012,[^,]+,)[^,]+,/m, '$1,');
+    expect(holed).not.toBe(CSV);
+    const page = await openWithStations(holed);
+    await page.selectOption('#by', 'station');
+    await page.selectOption('#time', 'year');
+    await page.check('#drop-missing');
+    await compute(page);
+    expect(await page.locator('#result-error').isHidden()).toBe(true);
+    const lib = exactDwBatch({ table: parseCsv(holed, { source: SOURCE }), by: 'station', y: 'rain_mm', x: REGRESSORS, time: 'year', dropMissing: true });
+    const rowOf = (station: string, year: number) => holed.trimEnd().split('\n').findIndex((l) => l.startsWith(`${station},${year},`));
+    expect(lib.groups.find((g) => g.group === 'Brackwater')!.droppedRows).toEqual({ count: 1, rows: [rowOf('Brackwater', 2010)] });
+    expect(lib.notes.map((n) => n.code)).toContain('BATCH_ROWS_DROPPED');
+    await expectTable(page, lib);
+    await expectSummary(page, lib);
+    expect(await cell(page, 'Brackwater', 'rows-dropped')).toBe(String(rowOf('Brackwater', 2010)));
+    expect(await cell(page, 'Dunmere', 'rows-dropped')).toBe(String(rowOf('Dunmere', 2012)));
+    expect(await cell(page, 'Aberford', 'rows-dropped')).toBe('\u2014');
+    await expectDownloads(page, lib);
     await page.close();
   });
 

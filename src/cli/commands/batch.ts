@@ -64,6 +64,7 @@ export const batchCommand: Command = {
     alternative: { type: 'string', value: 'ALT', help: 'positive (default), negative or two-sided' },
     alpha: { type: 'string', value: 'A', help: 'significance level in (0, 1) (default 0.05)' },
     critical: { type: 'boolean', help: 'also compute the exact critical values and the bounds zone of every group (slower when designs differ)' },
+    'drop-missing': { type: 'boolean', help: "drop, in each group, the rows with a missing value in a column of the model (listed per group; they become gaps in the group's time)" },
     workers: { type: 'string', value: 'N', help: `worker threads (default: one per core for files of more than ${THREAD_MIN_ROWS} lines, else 1)` },
     format: { type: 'string', value: 'FMT', help: 'markdown (default), csv, latex (booktabs) or json' },
     out: { type: 'string', value: 'FILE', help: 'write the table to FILE instead of the screen' },
@@ -100,7 +101,7 @@ export const batchCommand: Command = {
     const progress = progressLine(io);
     const batch = await runBatch(text, csvOptionsOf(values, path), {
       by, y, x: listOption(values, 'x'), time, timeColumn: values['no-time'] === true ? false : undefined, frequency: frequencyOption(values), adjust, alternative, alpha,
-      intercept: !values['no-intercept'], lag, method: methodOption(values), critical: values.critical === true,
+      intercept: !values['no-intercept'], lag, method: methodOption(values), critical: values.critical === true, dropMissing: values['drop-missing'] === true,
     }, workers, progress.update);
     progress.end();
     const body = renderBatch(batch, format);
