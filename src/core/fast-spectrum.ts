@@ -283,6 +283,12 @@ function sortBasis(values: Float64Array, coords: Float64Array[]): { values: Floa
   if (sorted) return { values, coords };
   const idx = Array.from({ length: N }, (_, i) => i);
   idx.sort((i, j) => values[i] - values[j] || i - j);
+  return permuted(values, coords, idx);
+}
+
+/** The values and every coordinate vector in the order idx (entry p is entry idx[p] before). */
+function permuted(values: Float64Array, coords: Float64Array[], idx: ArrayLike<number>): { values: Float64Array; coords: Float64Array[] } {
+  const N = values.length;
   const v = new Float64Array(N);
   for (let i = 0; i < N; i++) v[i] = values[idx[i]];
   const cs = coords.map((y) => {
@@ -491,14 +497,8 @@ function mergeAscending(values: Float64Array, coords: Float64Array[], head: numb
     if (b >= N || (a < head && values[order[a]] <= values[b])) idx[p] = order[a++];
     else idx[p] = b++;
   }
-  const v = new Float64Array(N);
-  for (let i = 0; i < N; i++) v[i] = values[idx[i]];
-  const cs = coords.map((y) => {
-    const out = new Float64Array(N);
-    for (let i = 0; i < N; i++) out[i] = y[idx[i]];
-    return out;
-  });
-  return { vals: v, cols: cs };
+  const out = permuted(values, coords, idx);
+  return { vals: out.values, cols: out.coords };
 }
 
 /**
