@@ -4,7 +4,7 @@
  * The guess follows the command line's default (every other numeric column is a regressor).
  */
 import { isMissingCell, numericColumn, textColumn, type DataTable } from '../data/csv.js';
-import { chooseTimeIndex, isTimeLabel, readsAsTimeIndex } from '../data/time-index.js';
+import { chooseTimeIndex, isTimeLabel, readsAsTimeIndex, TIME_NAMES } from '../data/time-index.js';
 import type { ColumnInfo } from './protocol.js';
 
 /**
@@ -39,10 +39,45 @@ export function summarizeColumns(table: DataTable): ColumnInfo[] {
 }
 
 /**
+ * The columns that serve as a time index within the groups of a stacked file: for some text column
+ * whose labels repeat (two or more groups, at most half as many groups as rows), the column's
+ * labels increase within every group of two or more rows, and it has a time-like name or holds
+ * quarter, month or date labels (the time-index rule of src/data/time-index.ts, group by group, as
+ * the batch applies it).
+ */
+function timeWithinGroups(table: DataTable, columns: ColumnInfo[]): Set<string> {
+  const found = new Set<string>();
+  const rows = table.rows.length;
+  const groupings = columns.filter((c) => !c.numeric && (c.distinct ?? 0) >= 2 && (c.distinct ?? 0) * 2 <= rows);
+  for (const by of groupings) {
+    const j = table.headers.indexOf(by.name);
+    const groups = new Map<string, number[]>();
+    table.rows.forEach((r, i) => { const g = groups.get(r[j].trim()); if (g) g.push(i); else groups.set(r[j].trim(), [i]); });
+    for (const c of columns) {
+      if (c.name === by.name || found.has(c.name)) continue;
+      const k = table.headers.indexOf(c.name);
+      let ok = true;
+      let calendar = false;
+      let seen = false;
+      for (const g of groups.values()) {
+        if (g.length < 2) continue;
+        const format = readsAsTimeIndex(g.map((i) => table.rows[i][k]).filter((cell) => !isMissingCell(cell)));
+        if (format === null) { ok = false; break; }
+        seen = true;
+        if (format !== 'integer') calendar = true;
+      }
+      if (ok && seen && (calendar || TIME_NAMES.includes(c.name.trim().toLowerCase()))) found.add(c.name);
+    }
+  }
+  return found;
+}
+
+/**
  * A first choice that follows the library's time-index rule (chooseTimeIndex, the rule of the
  * command line and the API): y is the first numeric column that is not time-like (else the first
  * numeric column); the time column is the one the rule takes (never y); the regressors are the
- * remaining numeric columns.
+ * remaining numeric columns. In a stacked file, a column that is a time index within every group
+ * (such as year beside a station column) is neither y nor a regressor.
  *
  * @example
  * ```ts
@@ -51,9 +86,12 @@ export function summarizeColumns(table: DataTable): ColumnInfo[] {
  * ```
  */
 export function guessColumns(table: DataTable, columns: ColumnInfo[]): { y: string | null; x: string[]; time: string | null } {
+  // in a stacked file (a text column that groups the rows) a column such as year is a time index
+  // within each group, neither y nor a regressor
+  const grouped = timeWithinGroups(table, columns);
   const numeric = columns.filter((c) => c.numeric);
-  const y = (numeric.find((c) => !c.timeLike) ?? numeric[0])?.name ?? null;
+  const y = (numeric.find((c) => !c.timeLike && !grouped.has(c.name)) ?? numeric[0])?.name ?? null;
   const choice = chooseTimeIndex(table.headers.map((h) => ({ name: h, cells: textColumn(table, h) })), { y: y ?? undefined });
   const time = choice.column;
-  return { y, x: numeric.map((c) => c.name).filter((name) => name !== y && name !== time), time };
+  return { y, x: numeric.map((c) => c.name).filter((name) => name !== y && name !== time && !grouped.has(name)), time };
 }

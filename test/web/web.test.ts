@@ -431,6 +431,10 @@ describe('the page helpers (plain functions, no browser)', () => {
     expect(cols.map((c) => [c.name, c.numeric, c.timeLike])).toEqual([['t', true, true], ['label', false, false], ['sales', true, false], ['price', true, false]]);
     // 't' is not a time-like name: by the time-index rule it stays a regressor (a trend)
     expect(guessColumns(table, cols)).toEqual({ time: null, y: 'sales', x: ['t', 'price'] });
+    // a stacked file: year increases within each station, not over the file; it is neither y nor a
+    // regressor (the batch's time-index rule, group by group), and 'idx', not a time-like name, stays a regressor
+    const stacked = parseCsv('station,year,idx,rain,temp\nA,2001,1,500,8.1\nA,2002,2,520,8.4\nA,2003,3,480,7.9\nB,2001,4,610,9.2\nB,2002,5,590,9.0\nB,2003,6,640,9.6\n');
+    expect(guessColumns(stacked, summarizeColumns(stacked))).toEqual({ time: null, y: 'rain', x: ['idx', 'temp'] });
   });
 
   it('names the settings a library error suggests as the page controls, and hides internals of other errors', () => {
