@@ -95,6 +95,16 @@ export function cancel(report: boolean): void {
   }
 }
 
+/** Show a computed result (one test or a batch) in place of the previous one. */
+function showResults(body: Node): void {
+  showError(el.resultError, null);
+  el.resultBody.replaceChildren(body);
+  el.resultBody.hidden = false;
+  el.stale.hidden = true;
+  page.hasResult = true;
+  el.resultsTitle.focus();
+}
+
 function onReply(reply: Reply): void {
   if (!pending || reply.id !== pending.id) return; // a reply to a request that was replaced
   switch (reply.kind) {
@@ -109,22 +119,12 @@ function onReply(reply: Reply): void {
     case 'result': {
       const rho = pending.rho;
       finish();
-      showError(el.resultError, null);
-      el.resultBody.replaceChildren(renderResult(reply.result, reply.extras, rho, reply.failures));
-      el.resultBody.hidden = false;
-      el.stale.hidden = true;
-      page.hasResult = true;
-      el.resultsTitle.focus();
+      showResults(renderResult(reply.result, reply.extras, rho, reply.failures));
       return;
     }
     case 'batch-result': {
       finish();
-      showError(el.resultError, null);
-      el.resultBody.replaceChildren(renderBatchResult(reply.batch, reply.downloads));
-      el.resultBody.hidden = false;
-      el.stale.hidden = true;
-      page.hasResult = true;
-      el.resultsTitle.focus();
+      showResults(renderBatchResult(reply.batch, reply.downloads));
       return;
     }
     case 'error': {
